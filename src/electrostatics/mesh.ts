@@ -1,0 +1,207 @@
+// Length scales, initial guess and mesh for the Poisson solve, all from the planar first integral
+//   (du/dx)^2 = 2 beta G(u),  G(u) = integral_0^u N(xi_bulk - u') du'   (Sze & Ng ch. 4, surface space charge),
+// which is exact for a planar semi-infinite support and a good guide for every other geometry.
+import type { ChargeModel } from '../bulk/equilibrium.js';
+import type { CrossSection } from './geometry.js';
+
+export interface PlanarFirstIntegral {
+  /** |u_s| */
+  magnitude: number;
+  sign: number;
+  /** generalised Debye length in the bulk, 1/sqrt(beta |dN/dxi|), m (Infinity when nothing screens) */
+  bulkScreening_m: number;
+  /** the same at the interface, m */
+  surfaceScreening_m: number;
+  /** width of a parabola with the same interface slope: 2 |u_s| / |u'(0)|, m */
+  effectiveWidth_m: number;
+  /** planar interface slope |u'(0)| = sqrt(2 beta G(u_s)), 1/m */
+  interfaceSlope_per_m: number;
+  /** depth at which |u| has fallen to fraction * |u_s| (planar), m; Infinity if never */
+  depthAtFraction(fraction: number): number;
+  /** planar profile u(x) for an initial guess */
+  guess(x_m: number): number;
+}
+
+const GEOMETRIC_POINTS = 48;
+const UNIFORM_POINTS = 96;
+const SMALLEST_FRACTION = 1e-14;
+
+export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface: number, beta: number): PlanarFirstIntegral {
+  const sign = uSurface >= 0 ? 1 : -1;
+  const magnitude = Math.abs(uSurface);
+  const charge = new Float64Array(2);
+  model.netCharge(xiBulk, charge);
+  const bulkSlope = Math.abs(charge[1]!);
+  const bulkScreening_m = bulkSlope > 0 ? 1 / Math.sqrt(beta * bulkSlope) : Infinity;
+  model.netCharge(xiBulk - uSurface, charge);
+  const surfaceSlope = Math.abs(charge[1]!);
+  const surfaceScreening_m = surfaceSlope > 0 ? 1 / Math.sqrt(beta * surfaceSlope) : Infinity;
+
+  // fractions s of |u_s|: geometric near 0 (where x(u) diverges logarithmically), uniform above
+  const fractions: number[] = [0];
+  const firstUniform = 1 / UNIFORM_POINTS;
+  for (let k = 0; k < GEOMETRIC_POINTS; k++) {
+    fractions.push(SMALLEST_FRACTION * Math.pow(firstUniform / SMALLEST_FRACTION, k / GEOMETRIC_POINTS));
+  }
+  for (let k = 1; k <= UNIFORM_POINTS; k++) fractions.push(k / UNIFORM_POINTS);
+  const m = fractions.length;
+  const uValues = new Float64Array(m);
+  const gValues = new Float64Array(m);
+  let previousCharge = 0;
+  for (let k = 0; k < m; k++) {
+    const u = sign * magnitude * fractions[k]!;
+    uValues[k] = u;
+    model.netCharge(xiBulk - u, charge);
+    // N has the sign of u (dN/du > 0, N(0) = 0), so G grows monotonically; trapezoid in u
+    const currentCharge = k === 0 ? 0 : charge[0]!;
+    if (k > 0) gValues[k] = gValues[k - 1]! + 0.5 * (previousCharge + currentCharge) * (u - uValues[k - 1]!);
+    previousCharge = currentCharge;
+  }
+  const slopes = new Float64Array(m);
+  for (let k = 0; k < m; k++) slopes[k] = Math.sqrt(2 * beta * Math.max(gValues[k]!, 0));
+  // x(u_k) = integral from u_k to u_s of du / |u'|, accumulated downward from the surface
+  const depth = new Float64Array(m);
+  depth[m - 1] = 0;
+  for (let k = m - 2; k >= 1; k--) {
+    const du = Math.abs(uValues[k + 1]! - uValues[k]!);
+    const a = slopes[k + 1]!;
+    const b = slopes[k]!;
+    depth[k] = a > 0 && b > 0 ? depth[k + 1]! + 0.5 * du * (1 / a + 1 / b) : Infinity;
+  }
+  depth[0] = Infinity;
+  const interfaceSlope_per_m = slopes[m - 1]!;
+  const effectiveWidth_m = interfaceSlope_per_m > 0 ? (2 * magnitude) / interfaceSlope_per_m : Infinity;
+
+  const depthAtFraction = (fraction: number): number => {
+    if (magnitude === 0) return 0;
+    for (let k = m - 1; k >= 1; k--) {
+      if (fractions[k]! <= fraction) return depth[k]!;
+    }
+    return depth[1]!;
+  };
+
+  const guess = (x: number): number => {
+    if (magnitude === 0) return 0;
+    if (x <= 0) return uSurface;
+    // depth decreases with k; find the bracket depth[k] >= x >= depth[k+1]
+    for (let k = m - 2; k >= 1; k--) {
+      const dk = depth[k]!;
+      if (dk >= x) {
+        if (!Number.isFinite(dk)) return uValues[k + 1]!;
+        const d1 = depth[k + 1]!;
+        const t = dk === d1 ? 0 : (x - d1) / (dk - d1);
+        return uValues[k + 1]! + t * (uValues[k]! - uValues[k + 1]!);
+      }
+    }
+    // beyond the table: linear screening tail
+    const tailStart = depth[1]!;
+    const decay = Number.isFinite(bulkScreening_m) ? Math.exp(-(x - tailStart) / bulkScreening_m) : 1;
+    return uValues[1]! * decay;
+  };
+
+  return {
+    magnitude,
+    sign,
+    bulkScreening_m,
+    surfaceScreening_m,
+    effectiveWidth_m,
+    interfaceSlope_per_m,
+    depthAtFraction,
+    guess,
+  };
+}
+
+export interface MeshOptions {
+  firstIntegral: PlanarFirstIntegral;
+  thickness_m?: number | undefined;
+  maxDomain_m: number;
+  refinement: number;
+  geometry: CrossSection;
+}
+
+export interface Mesh {
+  x: Float64Array;
+  /** the semi-infinite domain was capped at maxDomain */
+  truncated: boolean;
+}
+
+/** cell size near the interface and in the layer, as fractions of the governing length */
+const SURFACE_CELL_FRACTION = 0.1;
+const CORE_CELL_FRACTION = 0.3;
+/** growth of the cell size with depth near the interface (fraction of depth) */
+const GRADING = 0.12;
+/** growth of the cell size with distance beyond the layer, where the potential is exponentially small */
+const TAIL_GRADING = 0.25;
+const MAX_NODES = 20000;
+
+/**
+ * Graded mesh from a smooth spacing function h(x) = smoothmin(h_s + g x, h_c + g_t softplus(x - x_layer)),
+ * so that bisecting every cell gives the next member of one mesh family (used for Richardson extrapolation).
+ */
+export function buildMesh(options: MeshOptions): Mesh {
+  const fi = options.firstIntegral;
+  const bulkFinite = Number.isFinite(fi.bulkScreening_m);
+  const coreEnd = fi.depthAtFraction(1e-6);
+  const decayedEnd = fi.depthAtFraction(SMALLEST_FRACTION * 10) + (bulkFinite ? 5 * fi.bulkScreening_m : 0);
+  let end: number;
+  let truncated = false;
+  if (options.thickness_m !== undefined) {
+    end = options.thickness_m;
+  } else if (Number.isFinite(decayedEnd) && decayedEnd > 0 && decayedEnd <= options.maxDomain_m) {
+    end = decayedEnd;
+  } else {
+    end = options.maxDomain_m;
+    truncated = true;
+  }
+  const particleRadius = options.geometry.kind === 'planar' ? Infinity : Math.sqrt(options.geometry.interfaceArea_m2 / (2 * Math.PI));
+  const coreLength = bulkFinite ? fi.bulkScreening_m : fi.effectiveWidth_m;
+  let hCore = CORE_CELL_FRACTION * coreLength;
+  let hSurface = SURFACE_CELL_FRACTION * Math.min(fi.surfaceScreening_m, coreLength, particleRadius);
+  if (!Number.isFinite(hCore) || hCore <= 0) hCore = end / 200;
+  if (!Number.isFinite(hSurface) || hSurface <= 0) hSurface = end / 400;
+  hCore = Math.min(hCore, end / 20);
+  hSurface = Math.min(hSurface, hCore);
+  const layerEnd = Number.isFinite(coreEnd) ? Math.min(coreEnd, end) : end;
+  hSurface /= options.refinement;
+  hCore /= options.refinement;
+  for (let attempt = 0; attempt < 30; attempt++) {
+    const nodes = generate(end, layerEnd, hSurface, hCore, options.refinement);
+    if (nodes !== null) return { x: Float64Array.from(nodes), truncated };
+    hCore *= 1.5;
+  }
+  throw new Error('mesh generation failed');
+}
+
+function generate(end: number, layerEnd: number, hSurface: number, hCore: number, refinement: number): number[] | null {
+  const nodes = [0];
+  let x = 0;
+  const grading = GRADING / refinement;
+  const tailGrading = TAIL_GRADING / refinement;
+  const softness = Math.max(hCore * 10, 1e-300);
+  while (x < end) {
+    if (nodes.length > MAX_NODES) return null;
+    const near = hSurface + grading * x;
+    const beyond = x - layerEnd;
+    const softplus = beyond > 0 ? beyond + softness * Math.log1p(Math.exp(-beyond / softness)) : softness * Math.log1p(Math.exp(beyond / softness));
+    const far = hCore + tailGrading * softplus;
+    const h = 1 / Math.sqrt(1 / (near * near) + 1 / (far * far));
+    if (x + h >= end || end - (x + h) < 0.3 * h) {
+      nodes.push(end);
+      break;
+    }
+    x += h;
+    nodes.push(x);
+  }
+  return nodes;
+}
+
+/** Insert the midpoint of every cell: the next member of the mesh family. */
+export function bisectMesh(x: Float64Array): Float64Array {
+  const out = new Float64Array(2 * x.length - 1);
+  for (let i = 0; i < x.length - 1; i++) {
+    out[2 * i] = x[i]!;
+    out[2 * i + 1] = 0.5 * (x[i]! + x[i + 1]!);
+  }
+  out[out.length - 1] = x[x.length - 1]!;
+  return out;
+}

@@ -1,0 +1,239 @@
+// Nonlinear Poisson equation for the band bending in the support, on a 1D cross-section A(x):
+//   (1/A) d/dx (A du/dx) = beta * N(xi_bulk - u),   beta = q^2 / (eps eps0 k T),
+// with u = (E_C(x) - E_C,bulk)/kT (positive = bands bend up), N = (p - n + N_D^+ - N_A^-) per m^3.
+// Vertex-centred finite volumes on a graded mesh; Newton with an O(N) tridiagonal Jacobian and backtracking.
+import { EPS0_F_PER_M, K_BOLTZMANN_J_PER_K, Q_ELEMENTARY_C } from '../constants.js';
+import { ConvergenceError } from '../errors.js';
+import type { ChargeModel } from '../bulk/equilibrium.js';
+import type { CrossSection } from './geometry.js';
+import { solveTridiagonal } from './tridiagonal.js';
+import { bisectMesh, buildMesh, planarFirstIntegral, type PlanarFirstIntegral } from './mesh.js';
+
+export interface PoissonProblem {
+  model: ChargeModel;
+  /** (E_F - E_C)/kT in the bulk */
+  bulkReducedFermiLevel: number;
+  /** u at the interface, (E_C(0) - E_C,bulk)/kT */
+  surfaceBending: number;
+  relativePermittivity: number;
+  temperature_K: number;
+  geometry: CrossSection;
+  /** finite support thickness (zero field there); undefined = semi-infinite */
+  thickness_m?: number | undefined;
+  /** mesh refinement factor (1 = default accuracy; 2 halves every cell) */
+  refinement?: number;
+  /** longest domain modelled for a semi-infinite support, m */
+  maxDomain_m?: number;
+  maxIterations?: number;
+}
+
+export interface PoissonSolution {
+  x_m: Float64Array;
+  u: Float64Array;
+  /** net charge density / q at the nodes, per m^3 */
+  netCharge_m3: Float64Array;
+  /** total space charge on the support side, C (per m^2 for planar) */
+  totalCharge_C: number;
+  /** du/dx at the interface, 1/m */
+  interfaceSlope_per_m: number;
+  iterations: number;
+  domain_m: number;
+  /** u at the far end relative to the surface value: |u(L)/u(0)| */
+  farEndFraction: number;
+  /** semi-infinite support whose layer did not decay inside maxDomain */
+  truncated: boolean;
+  /** estimated relative error of totalCharge_C (Richardson: |Q_fine - Q_coarse| / 3 / |Q|) */
+  chargeErrorEstimate: number;
+  firstIntegral: PlanarFirstIntegral;
+}
+
+export const DEFAULT_MAX_DOMAIN_M = 100e-6;
+
+export function solvePoisson(problem: PoissonProblem): PoissonSolution {
+  const { model, geometry } = problem;
+  const xiBulk = problem.bulkReducedFermiLevel;
+  const uSurface = problem.surfaceBending;
+  // beta = q^2 / (eps eps0 k T): Poisson's equation in units of kT/q
+  const beta =
+    (Q_ELEMENTARY_C * Q_ELEMENTARY_C) /
+    (problem.relativePermittivity * EPS0_F_PER_M * K_BOLTZMANN_J_PER_K * problem.temperature_K);
+  const maxIterations = problem.maxIterations ?? 200;
+
+  const firstIntegral = planarFirstIntegral(model, xiBulk, uSurface, beta);
+  const mesh = buildMesh({
+    firstIntegral,
+    thickness_m: problem.thickness_m,
+    maxDomain_m: problem.maxDomain_m ?? DEFAULT_MAX_DOMAIN_M,
+    refinement: problem.refinement ?? 1,
+    geometry,
+  });
+  const coarseGuess = new Float64Array(mesh.x.length);
+  for (let i = 0; i < mesh.x.length; i++) coarseGuess[i] = firstIntegral.guess(mesh.x[i]!);
+  const coarse = newtonOnMesh(model, xiBulk, uSurface, beta, geometry, mesh.x, coarseGuess, maxIterations);
+  // Richardson extrapolation on the bisected mesh: the scheme is second order, so Q + (Q_f - Q_c)/3 is fourth order
+  const fineX = bisectMesh(mesh.x);
+  const fineGuess = new Float64Array(fineX.length);
+  for (let i = 0; i < coarse.u.length - 1; i++) {
+    fineGuess[2 * i] = coarse.u[i]!;
+    fineGuess[2 * i + 1] = 0.5 * (coarse.u[i]! + coarse.u[i + 1]!);
+  }
+  fineGuess[fineX.length - 1] = coarse.u[coarse.u.length - 1]!;
+  const fine = newtonOnMesh(model, xiBulk, uSurface, beta, geometry, fineX, fineGuess, maxIterations);
+  const correction = (fine.chargeSum - coarse.chargeSum) / 3;
+  const chargeSum = fine.chargeSum + correction;
+  const chargeErrorEstimate = chargeSum !== 0 ? Math.abs(correction / chargeSum) : 0;
+
+  const last = fineX.length - 1;
+  // Gauss's law on the discrete system: the flux into the support at x = 0 balances the total charge
+  const totalCharge_C = Q_ELEMENTARY_C * chargeSum;
+  const interfaceSlope_per_m = (-beta * chargeSum) / geometry.interfaceArea_m2;
+  const farEndFraction = Math.abs(uSurface) > 0 ? Math.abs(fine.u[last]! / uSurface) : 0;
+  return {
+    x_m: fineX,
+    u: fine.u,
+    netCharge_m3: fine.netCharge,
+    totalCharge_C,
+    interfaceSlope_per_m,
+    iterations: coarse.iterations + fine.iterations,
+    domain_m: fineX[last]!,
+    farEndFraction,
+    truncated: problem.thickness_m === undefined && mesh.truncated && farEndFraction > 1e-3,
+    chargeErrorEstimate,
+    firstIntegral,
+  };
+}
+
+interface MeshSolution {
+  u: Float64Array;
+  netCharge: Float64Array;
+  /** sum of N_i V_i, per m^3 times m^3 */
+  chargeSum: number;
+  iterations: number;
+}
+
+/** Damped Newton for the finite-volume system on one mesh; u[0] is the Dirichlet value. */
+function newtonOnMesh(
+  model: ChargeModel,
+  xiBulk: number,
+  uSurface: number,
+  beta: number,
+  geometry: CrossSection,
+  x: Float64Array,
+  initial: Float64Array,
+  maxIterations: number,
+): MeshSolution {
+  const n = x.length;
+  const last = n - 1;
+  // geometry factors: face coefficient A/h between node i and i+1, control volume of node i
+  const faceCoefficient = new Float64Array(n);
+  const volume = new Float64Array(n);
+  for (let i = 0; i < last; i++) {
+    const h = x[i + 1]! - x[i]!;
+    faceCoefficient[i] = geometry.faceArea(x[i]!, x[i + 1]!) / h;
+    const mid = 0.5 * (x[i]! + x[i + 1]!);
+    volume[i] += geometry.volume(x[i]!, mid);
+    volume[i + 1] += geometry.volume(mid, x[i + 1]!);
+  }
+  initial[0] = uSurface;
+  let lower: Float64Array = new Float64Array(n);
+  let diag: Float64Array = new Float64Array(n);
+  let upper: Float64Array = new Float64Array(n);
+  let residual: Float64Array = new Float64Array(n);
+  let trialLower: Float64Array = new Float64Array(n);
+  let trialDiag: Float64Array = new Float64Array(n);
+  let trialUpper: Float64Array = new Float64Array(n);
+  const step = new Float64Array(n);
+  const work = new Float64Array(n);
+  let trial: Float64Array = new Float64Array(n);
+  let trialResidual: Float64Array = new Float64Array(n);
+  const charge = new Float64Array(2);
+  const betaVolume = new Float64Array(n);
+  for (let i = 0; i < n; i++) betaVolume[i] = beta * volume[i]!;
+
+  /** residual R_i = flux out - flux in - beta V_i N_i (and the Jacobian when asked); returns the scaled norm */
+  const evaluate = (
+    values: Float64Array,
+    out: Float64Array,
+    outLower: Float64Array,
+    outDiag: Float64Array,
+    outUpper: Float64Array,
+  ): number => {
+    let norm = 0;
+    for (let i = 1; i < n; i++) {
+      model.netCharge(xiBulk - values[i]!, charge);
+      const right = i < last ? faceCoefficient[i]! : 0;
+      const left = faceCoefficient[i - 1]!;
+      const r =
+        (i < last ? right * (values[i + 1]! - values[i]!) : 0) - left * (values[i]! - values[i - 1]!) - betaVolume[i]! * charge[0]!;
+      out[i] = r;
+      const d = -right - left + betaVolume[i]! * charge[1]!;
+      outLower[i] = left;
+      outDiag[i] = d;
+      outUpper[i] = right;
+      // Jacobi-scaled residual: the step a diagonal solve would take, in units of kT
+      const scaled = r / d;
+      norm += scaled * scaled;
+    }
+    return Math.sqrt(norm / (n - 1));
+  };
+
+  let iterations = 0;
+  let u: Float64Array = initial;
+  let norm = evaluate(u, residual, lower, diag, upper);
+  let converged = false;
+  const stepCap = Math.max(10, 0.25 * Math.abs(uSurface));
+  while (iterations < maxIterations) {
+    iterations++;
+    for (let i = 1; i < n; i++) residual[i] = -residual[i]!;
+    lower[1] = 0;
+    upper[last] = 0;
+    const ok = solveTridiagonal(
+      n - 1,
+      lower.subarray(1),
+      diag.subarray(1),
+      upper.subarray(1),
+      residual.subarray(1),
+      step.subarray(1),
+      work.subarray(1),
+    );
+    if (!ok) throw new ConvergenceError('singular Jacobian', iterations);
+    let maxStep = 0;
+    for (let i = 1; i < n; i++) maxStep = Math.max(maxStep, Math.abs(step[i]!));
+    if (!Number.isFinite(maxStep)) throw new ConvergenceError('non-finite Newton step', iterations);
+    if (maxStep < 1e-11 * Math.max(1, Math.abs(uSurface))) {
+      for (let i = 1; i < n; i++) u[i] = u[i]! + step[i]!;
+      converged = true;
+      break;
+    }
+    // damping: cap the largest move, then backtrack until the scaled residual falls
+    let t = Math.min(1, stepCap / maxStep);
+    let trialNorm = Infinity;
+    for (let halvings = 0; halvings < 40; halvings++) {
+      for (let i = 1; i < n; i++) trial[i] = u[i]! + t * step[i]!;
+      trial[0] = uSurface;
+      trialNorm = evaluate(trial, trialResidual, trialLower, trialDiag, trialUpper);
+      if (Number.isFinite(trialNorm) && trialNorm <= (1 - 0.1 * t) * norm) break;
+      // near the solution rounding can stop the residual from falling: accept a full step that is already tiny
+      if (Number.isFinite(trialNorm) && t === 1 && maxStep < 1e-7 * Math.max(1, Math.abs(uSurface))) break;
+      t *= 0.5;
+    }
+    if (!Number.isFinite(trialNorm)) throw new ConvergenceError('residual overflow during line search', iterations);
+    // accept the trial point: its residual and Jacobian are already computed
+    [u, trial] = [trial, u];
+    [residual, trialResidual] = [trialResidual, residual];
+    [lower, trialLower] = [trialLower, lower];
+    [diag, trialDiag] = [trialDiag, diag];
+    [upper, trialUpper] = [trialUpper, upper];
+    norm = trialNorm;
+  }
+  if (!converged) throw new ConvergenceError(`no convergence within ${maxIterations} Newton iterations`, iterations);
+
+  const netCharge = new Float64Array(n);
+  let chargeSum = 0;
+  for (let i = 0; i < n; i++) {
+    model.netCharge(xiBulk - u[i]!, charge);
+    netCharge[i] = charge[0]!;
+    chargeSum += charge[0]! * volume[i]!;
+  }
+  return { u, netCharge, chargeSum, iterations };
+}

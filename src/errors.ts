@@ -1,0 +1,35 @@
+/** Bad input from a user: CLI option, study file, materials file, CSV. The CLI maps it to exit code 2. */
+export class InputError extends Error {
+  readonly field: string;
+  readonly allowed: string | undefined;
+  constructor(field: string, message: string, allowed?: string) {
+    super(allowed ? `${field}: ${message} (allowed: ${allowed})` : `${field}: ${message}`);
+    this.name = 'InputError';
+    this.field = field;
+    this.allowed = allowed;
+  }
+}
+
+/** The numerical solver did not reach a solution; the reason says why. Exit code 1 in the CLI. */
+export class ConvergenceError extends Error {
+  readonly reason: string;
+  readonly iterations: number;
+  constructor(reason: string, iterations: number) {
+    super(`solver did not converge: ${reason} (after ${iterations} iterations)`);
+    this.name = 'ConvergenceError';
+    this.reason = reason;
+    this.iterations = iterations;
+  }
+}
+
+/** Throw InputError unless value is finite and inside [min, max]. */
+export function requireInRange(field: string, value: number, min: number, max: number, unit: string): number {
+  if (!Number.isFinite(value) || value < min || value > max) {
+    throw new InputError(field, `value ${formatValue(value)} ${unit} is out of range`, `${min} to ${max} ${unit}`);
+  }
+  return value;
+}
+
+function formatValue(v: number): string {
+  return Number.isFinite(v) ? String(Number(v.toPrecision(6))) : String(v);
+}

@@ -1,0 +1,152 @@
+// Terminal summary of one contact, plus the number/wording helpers shared by figures and reports.
+import type { ContactResult, FlowDirection } from '../types.js';
+import { thermalEnergy_eV } from '../constants.js';
+import { stripControl } from './escape.js';
+
+/**
+ * Format a number with `sig` significant digits: plain notation for 1e-3 <= |v| < 1e5, otherwise
+ * exponential ("1.23e18"). null/undefined give "n/a"; NaN and infinities are spelled out.
+ */
+export function formatNumber(value: number | null | undefined, sig = 3): string {
+  if (value === null || value === undefined) return 'n/a';
+  if (Number.isNaN(value)) return 'NaN';
+  if (!Number.isFinite(value)) return value > 0 ? 'inf' : '-inf';
+  if (value === 0) return '0';
+  const abs = Math.abs(value);
+  if (abs >= 1e5 || abs < 1e-3) {
+    const [mantissa = '', exponent = ''] = value.toExponential(Math.max(0, sig - 1)).split('e');
+    const trimmed = mantissa.includes('.') ? mantissa.replace(/0+$/, '').replace(/\.$/, '') : mantissa;
+    return `${trimmed}e${exponent.replace('+', '')}`;
+  }
+  return String(Number(value.toPrecision(sig)));
+}
+
+/** Like formatNumber but with an explicit sign for positive values ("+0.42"). */
+export function formatSigned(value: number | null | undefined, sig = 3): string {
+  const text = formatNumber(value, sig);
+  return value !== null && value !== undefined && value > 0 ? `+${text}` : text;
+}
+
+/** Number with a unit, or "n/a" without the unit. */
+export function formatQuantity(value: number | null | undefined, unit: string, sig = 3): string {
+  const text = formatNumber(value, sig);
+  return text === 'n/a' || unit === '' ? text : `${text} ${unit}`;
+}
+
+/** The flow direction in words (electrons move in the stated direction until the Fermi levels align). */
+export function directionInWords(direction: FlowDirection): string {
+  switch (direction) {
+    case 'support-to-metal':
+      return 'electrons move from the support into the metal (the metal particle becomes negative)';
+    case 'metal-to-support':
+      return 'electrons move from the metal into the support (the metal particle becomes positive)';
+    case 'none':
+      return 'no net charge transfer (flat bands)';
+  }
+}
+
+/** Band bending in words, from the sign convention of ContactResult (positive = up toward the interface). */
+export function bendingInWords(bandBending_eV: number, kT_eV: number): string {
+  if (Math.abs(bandBending_eV) < 0.1 * kT_eV) return 'flat (below 0.1 kT)';
+  return bandBending_eV > 0 ? 'upward toward the interface' : 'downward toward the interface';
+}
+
+/** Human label of the barrier, naming the carrier. */
+export function barrierLabel(result: Pick<ContactResult, 'barrierCarrier'>): string {
+  return result.barrierCarrier === 'hole' ? 'barrier height (holes, E_F - E_V(0))' : 'barrier height (electrons, E_C(0) - E_F)';
+}
+
+export interface SummaryOptions {
+  /** ANSI colour for headings and warnings; default: only when stdout is a TTY and NO_COLOR is unset */
+  color?: boolean;
+}
+
+/** Whether colour output is appropriate: the stream is a TTY and NO_COLOR is not set (https://no-color.org). */
+export function shouldUseColor(
+  stream: { isTTY?: boolean } = process.stdout,
+  env: Record<string, string | undefined> = process.env,
+): boolean {
+  if (env.NO_COLOR !== undefined && env.NO_COLOR !== '') return false;
+  return stream.isTTY === true;
+}
+
+interface Styler {
+  bold: (s: string) => string;
+  warn: (s: string) => string;
+}
+
+function styler(color: boolean): Styler {
+  if (!color) return { bold: (s) => s, warn: (s) => s };
+  return { bold: (s) => `\u001b[1m${s}\u001b[22m`, warn: (s) => `\u001b[33m${s}\u001b[39m` };
+}
+
+/** Rows of [label, value] rendered as two aligned columns. */
+export function alignRows(rows: readonly (readonly [string, string])[], indent = '  '): string[] {
+  const width = rows.reduce((w, [label]) => Math.max(w, label.length), 0);
+  return rows.map(([label, value]) => `${indent}${label.padEnd(width)}  ${value}`);
+}
+
+/** The key results of one contact as [label, value] rows (plain text). */
+export function keyResultRows(result: ContactResult): [string, string][] {
+  const kT = thermalEnergy_eV(result.temperature_K);
+  const rows: [string, string][] = [
+    [barrierLabel(result), formatQuantity(result.barrierHeight_eV, 'eV')],
+    ['band bending', `${formatSigned(result.bandBending_eV)} eV (${bendingInWords(result.bandBending_eV, kT)})`],
+    ['direction', directionInWords(result.direction)],
+    ['metal work function', formatQuantity(result.metalWorkFunction_eV, 'eV')],
+    ['support work function', formatQuantity(result.supportWorkFunction_eV, 'eV')],
+    ['bulk E_C - E_F', formatQuantity(result.fermiLevelBelowConduction_eV, 'eV')],
+    ['space charge', `${formatSigned(result.spaceCharge_C_per_m2)} C/m^2`],
+    ['charge-equivalent width', formatQuantity(result.chargeEquivalentWidth_nm, 'nm')],
+    ['depletion width (approx.)', formatQuantity(result.depletionWidthApprox_nm, 'nm')],
+    ['Debye length', formatQuantity(result.debyeLength_nm, 'nm')],
+    ['interface field', formatQuantity(result.interfaceField_V_per_m, 'V/m')],
+    ['image-force lowering', formatQuantity(result.imageForceLowering_eV, 'eV')],
+    ['electrons per particle', `${formatSigned(result.electronsPerParticle)} (d = ${formatNumber(result.particle.diameter_nm)} nm)`],
+  ];
+  if (result.exchange) {
+    rows.push(['exchange time', formatQuantity(result.exchange.equilibrationTime_s, 's')]);
+  }
+  if (result.uncertainty) {
+    const u = result.uncertainty;
+    rows.push([
+      'barrier 5-50-95 %',
+      `${formatNumber(u.barrierHeight_eV.p05)} / ${formatNumber(u.barrierHeight_eV.p50)} / ${formatNumber(u.barrierHeight_eV.p95)} eV`,
+    ]);
+    rows.push([
+      'P(direction)',
+      (Object.keys(u.directionProbability) as FlowDirection[])
+        .map((d) => `${d} ${formatNumber(u.directionProbability[d], 2)}`)
+        .join(', '),
+    ]);
+  }
+  return rows;
+}
+
+/** A readable, aligned plain-text summary of one contact for the terminal. */
+export function formatContactSummary(result: ContactResult, opts: SummaryOptions = {}): string {
+  const st = styler(opts.color ?? shouldUseColor());
+  const metal = stripControl(result.metal);
+  const support = stripControl(result.support);
+  const lines: string[] = [];
+  lines.push(st.bold(`${metal} | ${support} at ${formatNumber(result.temperature_K, 4)} K`));
+  lines.push(
+    `  ${result.geometry} geometry, ${result.statistics} statistics, ${result.barrierModel} barrier model` +
+      (result.solver.converged ? '' : ' (solver NOT converged)'),
+  );
+  lines.push('');
+  lines.push(...alignRows(keyResultRows(result)));
+  const warnings = result.warnings;
+  if (warnings.length > 0 || !result.solver.converged) {
+    lines.push('');
+    lines.push(st.warn(st.bold('Warnings')));
+    if (!result.solver.converged) lines.push(st.warn('  - [not-converged] the solver did not report convergence'));
+    for (const w of warnings) lines.push(st.warn(`  - [${stripControl(w.code)}] ${stripControl(w.message)}`));
+  }
+  if (result.cautions.length > 0) {
+    lines.push('');
+    lines.push(st.bold('Cautions'));
+    for (const c of result.cautions) lines.push(`  - ${stripControl(c)}`);
+  }
+  return `${lines.join('\n')}\n`;
+}

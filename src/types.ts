@@ -1,0 +1,133 @@
+// The result contract of `bandbend contact --json` and `solveContact()`.
+// Later tools rely on these names: add fields freely, never rename.
+import type { InputProvenance } from './materials/types.js';
+
+export type FlowDirection = 'support-to-metal' | 'metal-to-support' | 'none';
+export type GeometryKind = 'planar' | 'hemisphere' | 'array';
+export type Statistics = 'fermi-dirac' | 'boltzmann';
+export type BarrierModel = 'ideal' | 'pinned' | 'given';
+
+export interface Warning {
+  code: string;
+  message: string;
+}
+
+export interface Profile {
+  /** distance from the interface into the support, nm */
+  x_nm: number[];
+  /** E_C - E_F, eV */
+  conductionBand_eV: number[];
+  /** E_V - E_F, eV */
+  valenceBand_eV: number[];
+  electronDensity_cm3: number[];
+  holeDensity_cm3: number[];
+  chargeDensity_C_per_m3: number[];
+  /** electric field, V/m, positive pointing into the support (away from the metal) */
+  field_V_per_m: number[];
+}
+
+export interface SolverInfo {
+  converged: boolean;
+  iterations: number;
+  meshPoints: number;
+  domainLength_nm: number;
+  /** relative change of total charge when the mesh is refined would go here; we report the discrete charge balance residual */
+  chargeBalanceResidual: number;
+}
+
+export interface ParticleInfo {
+  diameter_nm: number;
+  atoms: number | null;
+  surfaceAtoms: number | null;
+  dispersion: number | null;
+  electronsPerSurfaceAtom: number | null;
+  chargingEnergy_eV: number;
+  chargingEnergyOverKT: number;
+  /** areal particle density per cm^2 when an array was modelled */
+  particleDensity_cm2: number | null;
+  meanSpacing_nm: number | null;
+  zonesOverlap: boolean | null;
+}
+
+export interface ExchangeInfo {
+  richardsonConstant_A_per_cm2_K2: number;
+  exchangeCurrentDensity_A_per_cm2: number;
+  /** time to build the equilibrium charge by thermionic exchange, s */
+  equilibrationTime_s: number;
+}
+
+export interface PretreatmentInfo {
+  mode: 'given' | 'equilibrium' | 'frozen-in';
+  reductionTemperature_K: number | null;
+  oxygenPressure_Pa: number | null;
+  hydrogenToWater: number | null;
+  vacancyDensity_cm3: number | null;
+}
+
+export interface UncertaintySummary {
+  samples: number;
+  seed: number;
+  failed: number;
+  directionProbability: Record<FlowDirection, number>;
+  barrierHeight_eV: Percentiles;
+  bandBending_eV: Percentiles;
+  electronsPerParticle: Percentiles;
+}
+
+export interface Percentiles {
+  p05: number;
+  p50: number;
+  p95: number;
+}
+
+export interface ContactResult {
+  metal: string;
+  support: string;
+  temperature_K: number;
+  geometry: GeometryKind;
+  statistics: Statistics;
+  barrierModel: BarrierModel;
+  /** which carrier the barrier is quoted for: electrons for n-type supports, holes for p-type */
+  barrierCarrier: 'electron' | 'hole';
+  barrierHeight_eV: number;
+  /** electron barrier E_C(0) - E_F regardless of carrier type */
+  electronBarrier_eV: number;
+  metalWorkFunction_eV: number;
+  /** positive = bands bend up toward the interface */
+  bandBending_eV: number;
+  /** bulk E_C - E_F */
+  fermiLevelBelowConduction_eV: number;
+  supportWorkFunction_eV: number;
+  direction: FlowDirection;
+  /** signed charge on the support side per interface area, C/m^2 (positive when the support is positive) */
+  spaceCharge_C_per_m2: number;
+  chargeEquivalentWidth_nm: number | null;
+  depletionWidthApprox_nm: number | null;
+  debyeLength_nm: number;
+  interfaceField_V_per_m: number;
+  imageForceLowering_eV: number;
+  /** electrons gained by the metal particle (negative when it loses them) */
+  electronsPerParticle: number;
+  donorDensity_cm3: number;
+  acceptorDensity_cm3: number;
+  bulk: {
+    electronDensity_cm3: number;
+    holeDensity_cm3: number;
+    ionizedDonors_cm3: number;
+    ionizedAcceptors_cm3: number;
+    conductionDensityOfStates_cm3: number;
+    valenceDensityOfStates_cm3: number;
+    /** log10 of the intrinsic density in cm^-3 (may be far below 1e-30, so given as a log) */
+    intrinsicDensityLog10_cm3: number;
+  };
+  particle: ParticleInfo;
+  exchange: ExchangeInfo | null;
+  pretreatment: PretreatmentInfo;
+  profile: Profile;
+  solver: SolverInfo;
+  warnings: Warning[];
+  cautions: string[];
+  /** provenance of every input used */
+  inputs: InputProvenance[];
+  uncertainty?: UncertaintySummary;
+}
