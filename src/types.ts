@@ -52,8 +52,13 @@ export interface ParticleInfo {
 export interface ExchangeInfo {
   richardsonConstant_A_per_cm2_K2: number;
   exchangeCurrentDensity_A_per_cm2: number;
-  /** time to build the equilibrium charge by thermionic exchange, s */
-  equilibrationTime_s: number;
+  /** log10 of the exchange current density, A/cm^2 (finite even when the current underflows) */
+  exchangeCurrentLog10_A_per_cm2: number;
+  /** time to build the equilibrium charge by thermionic exchange, s (null when it exceeds a double) */
+  equilibrationTime_s: number | null;
+  equilibrationTimeLog10_s: number;
+  /** equilibrium would take more than an hour */
+  slow: boolean;
 }
 
 export interface PretreatmentInfo {
@@ -62,6 +67,8 @@ export interface PretreatmentInfo {
   oxygenPressure_Pa: number | null;
   hydrogenToWater: number | null;
   vacancyDensity_cm3: number | null;
+  /** temperature at which vacancies equilibrated with the gas, K */
+  equilibrationTemperature_K: number | null;
 }
 
 export interface UncertaintySummary {
@@ -110,6 +117,10 @@ export interface ContactResult {
   electronsPerParticle: number;
   donorDensity_cm3: number;
   acceptorDensity_cm3: number;
+  /** pinning factor used by the pinned model (null otherwise) */
+  pinningFactor: number | null;
+  /** depth from the interface holding 90% of the space charge, nm */
+  chargeDepth90_nm: number;
   bulk: {
     electronDensity_cm3: number;
     holeDensity_cm3: number;

@@ -42,12 +42,28 @@ export function hemisphere(radius_m: number): CrossSection {
 export function crossSectionFromFunction(kind: string, area: (x_m: number) => number): CrossSection {
   const nodes = [-Math.sqrt(3 / 5), 0, Math.sqrt(3 / 5)];
   const weights = [5 / 9, 8 / 9, 5 / 9];
-  const volume = (xa: number, xb: number): number => {
+  const segment = (xa: number, xb: number): number => {
     const half = 0.5 * (xb - xa);
     const mid = 0.5 * (xa + xb);
     let sum = 0;
     for (let k = 0; k < 3; k++) sum += weights[k]! * area(mid + half * nodes[k]!);
     return sum * half;
+  };
+  // long spans (depthHoldingVolume) are split into geometric pieces so A may vary by orders of magnitude
+  const volume = (xa: number, xb: number): number => {
+    const length = xb - xa;
+    if (length <= 0) return 0;
+    const start = Math.max(xa, 1e-12);
+    if (xb / start < 1.5) return segment(xa, xb);
+    let sum = segment(xa, start);
+    const pieces = Math.ceil(Math.log(xb / start) / Math.log(1.2));
+    let left = start;
+    for (let k = 1; k <= pieces; k++) {
+      const right = k === pieces ? xb : start * Math.pow(xb / start, k / pieces);
+      sum += segment(left, right);
+      left = right;
+    }
+    return sum;
   };
   return {
     kind,
@@ -68,4 +84,21 @@ export function crossSectionFromFunction(kind: string, area: (x_m: number) => nu
       return 0.5 * (low + high);
     },
   };
+}
+
+/**
+ * Flux tube of one particle in an array of areal density N: the hemisphere near the particle joined smoothly
+ * to the planar share 1/N deep in the support, A = [(2 pi r^2)^-m + N^m]^(-1/m) with m = 2.
+ * Why: it recovers the isolated hemisphere when 1/N >> 2 pi r^2 over the whole layer, and the planar layer
+ * shared among particles when the layer is much deeper than the spacing. It neglects the lateral structure of
+ * the field between particles (a real cell is square or hexagonal, not axisymmetric).
+ */
+export function particleArray(radius_m: number, particleDensity_m2: number): CrossSection {
+  const m = 2;
+  const shareArea = 1 / particleDensity_m2;
+  const area = (x: number): number => {
+    const hemisphereArea = 2 * Math.PI * (radius_m + x) ** 2;
+    return Math.pow(Math.pow(hemisphereArea, -m) + Math.pow(shareArea, -m), -1 / m);
+  };
+  return crossSectionFromFunction('array', area);
 }
