@@ -2,6 +2,8 @@
 // inputs -> materials -> bulk equilibrium -> barrier -> electrostatics -> derived results.
 import { EPS0_F_PER_M, Q_ELEMENTARY_C, thermalEnergy_eV } from './constants.js';
 import { InputError } from './errors.js';
+import { parseQuantity } from './inputs/units.js';
+import { propagateUncertainty } from './derived/uncertainty.js';
 import { resolveContact, type ContactOptions, type ResolvedContact } from './inputs/contactInput.js';
 import { makeChargeModel, solveBulkNeutrality, type ChargeModel, type BulkState } from './bulk/equilibrium.js';
 import { barrierHeight, imageForceLowering_eV } from './barrier/barrier.js';
@@ -18,7 +20,19 @@ export const MAX_BAND_BENDING_EV = 12;
 
 /** Solve one contact from user-level options (units parsed, materials looked up). */
 export function solveContact(options: ContactOptions): ContactResult {
-  return solveResolved(resolveContact(options));
+  const resolved = resolveContact(options);
+  const result = solveResolved(resolved);
+  const samples = options.uncertainty === undefined ? 0 : parseQuantity('--uncertainty', options.uncertainty, 'dimensionless');
+  if (samples > 0) {
+    if (!Number.isInteger(samples)) throw new InputError('--uncertainty', `expected a whole number of samples, got ${samples}`, '1 to 100000');
+    const seed = options.seed === undefined ? 1 : parseQuantity('--seed', options.seed, 'dimensionless');
+    if (!Number.isInteger(seed)) throw new InputError('--seed', `expected an integer, got ${seed}`, '0 to 4294967295');
+    result.uncertainty = propagateUncertainty(resolved, solveResolved, samples, seed);
+    if (resolved.ranges.size === 0) {
+      result.warnings.push({ code: 'no-ranges', message: 'no input has a published range: the uncertainty sampling varied nothing' });
+    }
+  }
+  return result;
 }
 
 function geometryOf(r: ResolvedContact): CrossSection {

@@ -75,6 +75,8 @@ export interface UncertaintySummary {
   samples: number;
   seed: number;
   failed: number;
+  /** inputs that were varied within their published ranges */
+  sampledInputs: string[];
   directionProbability: Record<FlowDirection, number>;
   barrierHeight_eV: Percentiles;
   bandBending_eV: Percentiles;

@@ -44,6 +44,8 @@ export interface PoissonSolution {
   truncated: boolean;
   /** estimated relative error of totalCharge_C (Richardson: |Q_fine - Q_coarse| / 3 / |Q|) */
   chargeErrorEstimate: number;
+  /** total charge on the coarse and the bisected mesh before extrapolation, C (for convergence checks) */
+  unextrapolatedCharge_C: { coarse: number; fine: number };
   firstIntegral: PlanarFirstIntegral;
 }
 
@@ -99,6 +101,7 @@ export function solvePoisson(problem: PoissonProblem): PoissonSolution {
     farEndFraction,
     truncated: problem.thickness_m === undefined && mesh.truncated && farEndFraction > 1e-3,
     chargeErrorEstimate,
+    unextrapolatedCharge_C: { coarse: Q_ELEMENTARY_C * coarse.chargeSum, fine: Q_ELEMENTARY_C * fine.chargeSum },
     firstIntegral,
   };
 }

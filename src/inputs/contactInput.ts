@@ -64,6 +64,10 @@ export interface ContactOptions {
   materials?: MaterialsLibrary | string[];
   /** mesh refinement (1 = default accuracy) */
   refinement?: number;
+  /** Monte Carlo samples over the published ranges of the material inputs (0 = off) */
+  uncertainty?: number | string;
+  /** seed of the Monte Carlo sampling */
+  seed?: number | string;
 }
 
 export interface ResolvedSupport {

@@ -1,0 +1,118 @@
+// Monte Carlo propagation of literature scatter: each material input with a published range is sampled
+// (uniformly, or log-uniformly for densities), the contact is re-solved, and the spread of results reported.
+import type { ResolvedContact, SampledFields } from '../inputs/contactInput.js';
+import type { ContactResult, FlowDirection, Percentiles, UncertaintySummary } from '../types.js';
+import { ConvergenceError, requireInRange } from '../errors.js';
+
+/** mulberry32: small, fast, seedable PRNG (common practice, no source); deterministic for a seed. */
+export function seededRandom(seed: number): () => number {
+  let state = seed >>> 0;
+  return () => {
+    state = (state + 0x6d2b79f5) >>> 0;
+    let t = state;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** Percentile by linear interpolation between order statistics (type 7, the common default). */
+export function percentile(sorted: number[], p: number): number {
+  if (sorted.length === 0) return NaN;
+  const position = (sorted.length - 1) * p;
+  const low = Math.floor(position);
+  const high = Math.min(low + 1, sorted.length - 1);
+  return sorted[low]! + (position - low) * (sorted[high]! - sorted[low]!);
+}
+
+function percentiles(values: number[]): Percentiles {
+  const sorted = [...values].sort((a, b) => a - b);
+  return { p05: percentile(sorted, 0.05), p50: percentile(sorted, 0.5), p95: percentile(sorted, 0.95) };
+}
+
+/** One sampled copy of the resolved inputs. */
+export function sampleInputs(base: ResolvedContact, random: () => number): ResolvedContact {
+  const metal = { ...base.metal };
+  const support = { ...base.support };
+  for (const [field, [min, max]] of base.ranges) {
+    const u = random();
+    const logScale = field === 'donors_m3' && min > 0;
+    const value = logScale ? Math.exp(Math.log(min) + u * (Math.log(max) - Math.log(min))) : min + u * (max - min);
+    applySample(field, value, metal, support);
+  }
+  return { ...base, metal, support };
+}
+
+function applySample(field: keyof SampledFields, value: number, metal: ResolvedContact['metal'], support: ResolvedContact['support']): void {
+  switch (field) {
+    case 'workFunction_eV':
+      metal.workFunction_eV = value;
+      break;
+    case 'electronAffinity_eV':
+      support.electronAffinity_eV = value;
+      break;
+    case 'bandGap_eV':
+      support.bandGap_eV = value;
+      break;
+    case 'permittivity':
+      support.permittivity = value;
+      break;
+    case 'donors_m3':
+      support.donors_m3 = value;
+      break;
+    case 'donorLevel1_eV':
+      support.donorLevel1_eV = value;
+      break;
+  }
+}
+
+/**
+ * Sample `samples` contacts and summarise. A sample that fails (e.g. an input combination outside the model)
+ * is counted in `failed` and left out of the statistics, never silently replaced.
+ */
+export function propagateUncertainty(
+  base: ResolvedContact,
+  solve: (r: ResolvedContact) => ContactResult,
+  samples: number,
+  seed: number,
+): UncertaintySummary {
+  requireInRange('--uncertainty', samples, 1, 100000, 'samples');
+  requireInRange('--seed', seed, 0, 2 ** 32 - 1, '');
+  const random = seededRandom(seed);
+  const counts: Record<FlowDirection, number> = { 'support-to-metal': 0, 'metal-to-support': 0, none: 0 };
+  const barrier: number[] = [];
+  const bending: number[] = [];
+  const electrons: number[] = [];
+  let failed = 0;
+  for (let i = 0; i < samples; i++) {
+    const sampled = sampleInputs(base, random);
+    let result: ContactResult;
+    try {
+      result = solve(sampled);
+    } catch {
+      failed++;
+      continue;
+    }
+    counts[result.direction]++;
+    barrier.push(result.barrierHeight_eV);
+    bending.push(result.bandBending_eV);
+    electrons.push(result.electronsPerParticle);
+  }
+  const ok = samples - failed;
+  if (ok === 0) throw new ConvergenceError('every uncertainty sample failed', samples);
+  const probability = (k: FlowDirection): number => counts[k] / ok;
+  return {
+    samples,
+    seed,
+    failed,
+    sampledInputs: [...base.ranges.keys()],
+    directionProbability: {
+      'support-to-metal': probability('support-to-metal'),
+      'metal-to-support': probability('metal-to-support'),
+      none: probability('none'),
+    },
+    barrierHeight_eV: percentiles(barrier),
+    bandBending_eV: percentiles(bending),
+    electronsPerParticle: percentiles(electrons),
+  };
+}

@@ -1,0 +1,105 @@
+// Screening: every metal x support pair at the same conditions, one row per pair.
+import { solveContact, type ContactOptions } from './contact.js';
+import { loadLibrary } from './materials/load.js';
+import type { MaterialsLibrary } from './materials/types.js';
+import type { ContactResult } from './types.js';
+import { InputError } from './errors.js';
+
+export interface ScreenRow {
+  metal: string;
+  support: string;
+  direction: string | null;
+  barrierHeight_eV: number | null;
+  bandBending_eV: number | null;
+  electronsPerParticle: number | null;
+  chargeEquivalentWidth_nm: number | null;
+  supportWorkFunction_eV: number | null;
+  metalWorkFunction_eV: number | null;
+  donorDensity_cm3: number | null;
+  /** probability that electrons flow from support to metal (only with uncertainty sampling) */
+  probabilitySupportToMetal: number | null;
+  warnings: string;
+  error: string;
+  [key: string]: string | number | null;
+}
+
+export interface ScreenOptions {
+  metals: string[];
+  supports: string[];
+  /** conditions shared by every pair (metal/support are set per pair) */
+  conditions: Omit<ContactOptions, 'metal' | 'support' | 'materials'>;
+  materials?: MaterialsLibrary | string[];
+  onProgress?: (done: number, total: number) => void;
+}
+
+export const SCREEN_COLUMNS: (keyof ScreenRow)[] = [
+  'metal',
+  'support',
+  'direction',
+  'barrierHeight_eV',
+  'bandBending_eV',
+  'electronsPerParticle',
+  'chargeEquivalentWidth_nm',
+  'supportWorkFunction_eV',
+  'metalWorkFunction_eV',
+  'donorDensity_cm3',
+  'probabilitySupportToMetal',
+  'warnings',
+  'error',
+];
+
+function rowOf(metal: string, support: string, r: ContactResult | null, error: string): ScreenRow {
+  return {
+    metal,
+    support,
+    direction: r?.direction ?? null,
+    barrierHeight_eV: r?.barrierHeight_eV ?? null,
+    bandBending_eV: r?.bandBending_eV ?? null,
+    electronsPerParticle: r?.electronsPerParticle ?? null,
+    chargeEquivalentWidth_nm: r?.chargeEquivalentWidth_nm ?? null,
+    supportWorkFunction_eV: r?.supportWorkFunction_eV ?? null,
+    metalWorkFunction_eV: r?.metalWorkFunction_eV ?? null,
+    donorDensity_cm3: r?.donorDensity_cm3 ?? null,
+    probabilitySupportToMetal: r?.uncertainty?.directionProbability['support-to-metal'] ?? null,
+    warnings: r ? r.warnings.map((w) => w.code).join(' ') : '',
+    error,
+  };
+}
+
+/** Solve every pair; a failing pair is a row with its error, the screen goes on. */
+export function runScreen(options: ScreenOptions): ScreenRow[] {
+  if (options.metals.length === 0) throw new InputError('--metals', 'no metals given', 'a comma-separated list, or "all"');
+  if (options.supports.length === 0) throw new InputError('--supports', 'no supports given', 'a comma-separated list, or "all"');
+  const library = Array.isArray(options.materials) || options.materials === undefined ? loadLibrary(options.materials ?? []) : options.materials;
+  const rows: ScreenRow[] = [];
+  const total = options.metals.length * options.supports.length;
+  for (const metal of options.metals) {
+    for (const support of options.supports) {
+      let result: ContactResult | null = null;
+      let error = '';
+      try {
+        result = solveContact({ ...options.conditions, metal, support, materials: library });
+      } catch (e) {
+        if (!(e instanceof Error)) throw e;
+        error = e.message;
+      }
+      rows.push(rowOf(result?.metal ?? metal, result?.support ?? support, result, error));
+      options.onProgress?.(rows.length, total);
+    }
+  }
+  return rows;
+}
+
+/** Sort rows: by a numeric column, largest magnitude first; failed rows last. */
+export function sortScreenRows(rows: ScreenRow[], column: string): ScreenRow[] {
+  return [...rows].sort((a, b) => {
+    const x = a[column];
+    const y = b[column];
+    const xn = typeof x === 'number' ? x : null;
+    const yn = typeof y === 'number' ? y : null;
+    if (xn === null && yn === null) return 0;
+    if (xn === null) return 1;
+    if (yn === null) return -1;
+    return yn - xn;
+  });
+}

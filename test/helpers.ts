@@ -1,0 +1,47 @@
+// Shared test helpers: independent reference computations written for the tests (not the project's code paths).
+import { makeChargeModel, solveBulkNeutrality, type SupportElectronic } from '../src/bulk/equilibrium.js';
+
+/** CODATA 2018 values (Tiesinga et al., Rev. Mod. Phys. 93, 025010 (2021)), typed here independently of mathjs. */
+export const CODATA2018 = {
+  k: 1.380649e-23,
+  q: 1.602176634e-19,
+  h: 6.62607015e-34,
+  me: 9.1093837015e-31,
+  eps0: 8.8541878128e-12,
+};
+
+/** Composite Simpson rule with n (even) intervals. */
+export function simpson(f: (x: number) => number, a: number, b: number, n: number): number {
+  const h = (b - a) / n;
+  let sum = f(a) + f(b);
+  for (let i = 1; i < n; i++) sum += (i % 2 === 1 ? 4 : 2) * f(a + i * h);
+  return (sum * h) / 3;
+}
+
+/**
+ * Exact planar surface charge from the first integral of Poisson's equation (Sze & Ng, Physics of Semiconductor
+ * Devices, 3rd ed., ch. 4, surface space-charge relation): Q = sign(u_s) sqrt(2 eps eps0 kT * int_0^u_s N du),
+ * with the integral of the full charge model done here by Simpson's rule on a fine grid.
+ */
+export function exactPlanarCharge(support: SupportElectronic, relativePermittivity: number, bandBending_eV: number): number {
+  const model = makeChargeModel(support);
+  const bulk = solveBulkNeutrality(model);
+  const u = bandBending_eV / model.kT_eV;
+  const out = new Float64Array(2);
+  const integrand = (v: number): number => {
+    model.netCharge(bulk.reducedFermiLevel - v, out);
+    return out[0]!;
+  };
+  const integral = simpson(integrand, 0, u, 200000);
+  return Math.sign(u) * Math.sqrt(2 * relativePermittivity * CODATA2018.eps0 * CODATA2018.k * support.temperature_K * integral);
+}
+
+/**
+ * Closed-form planar charge for Boltzmann statistics and fully ionised dopants (Sze & Ng ch. 4, eq. for Q_s with
+ * F(beta psi_s, n_p0/p_p0)), in this project's sign convention (u = reduced band bending, up = positive):
+ * int_0^u N du = p0 (e^u - u - 1) + n0 (e^-u + u - 1).
+ */
+export function boltzmannPlanarCharge(n0_m3: number, p0_m3: number, u: number, relativePermittivity: number, temperature_K: number): number {
+  const integral = p0_m3 * Math.expm1(u) - p0_m3 * u + n0_m3 * Math.expm1(-u) + n0_m3 * u;
+  return Math.sign(u) * Math.sqrt(2 * relativePermittivity * CODATA2018.eps0 * CODATA2018.k * temperature_K * integral);
+}
