@@ -8,7 +8,7 @@ import { resolveContact, type ContactOptions, type ResolvedContact } from './inp
 import { makeChargeModel, solveBulkNeutrality, type ChargeModel, type BulkState } from './bulk/equilibrium.js';
 import { barrierHeight, imageForceLowering_eV } from './barrier/barrier.js';
 import { PLANAR, hemisphere, particleArray, type CrossSection } from './electrostatics/geometry.js';
-import { solvePoisson, type PoissonSolution } from './electrostatics/poisson.js';
+import { solvePoisson, REFINE_ABOVE, type PoissonSolution } from './electrostatics/poisson.js';
 import { particleAtoms, chargingSummary, effectivePermittivity, meanSpacing_m } from './derived/particle.js';
 import { thermionicExchangeCurrent_A_per_m2, equilibrationTime_s, SLOW_EXCHANGE_THRESHOLD_S } from './derived/exchange.js';
 import type { ContactResult, FlowDirection, ParticleInfo, Profile, Warning, ExchangeInfo } from './types.js';
@@ -378,7 +378,7 @@ function collectWarnings(out: Warning[], w: WarningContext): void {
   if (w.exchange?.slow) {
     add('slow-exchange', `thermionic exchange would take ~10^${w.exchange.equilibrationTimeLog10_s.toFixed(1)} s (> 1 h) at ${w.r.temperature_K} K: equilibrium may not be reached`);
   }
-  if (w.solution.chargeErrorEstimate > 1e-4) {
+  if (w.solution.chargeErrorEstimate > REFINE_ABOVE) {
     add('mesh-accuracy', `estimated relative charge error ${w.solution.chargeErrorEstimate.toExponential(1)}; rerun with a finer mesh`);
   }
   const estimated = w.r.inputs.filter((i) => i.origin === 'estimate').map((i) => i.field);

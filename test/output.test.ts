@@ -122,8 +122,22 @@ function depletionFixture(over: Partial<FixtureParams> = {}): ContactResult {
       meanSpacing_nm: null,
       zonesOverlap: null,
     },
-    exchange: { richardsonConstant_A_per_cm2_K2: 120, exchangeCurrentDensity_A_per_cm2: 2.5e-3, equilibrationTime_s: 4.2e-6 },
-    pretreatment: { mode: 'given', reductionTemperature_K: null, oxygenPressure_Pa: null, hydrogenToWater: null, vacancyDensity_cm3: null },
+    exchange: {
+      richardsonConstant_A_per_cm2_K2: 120,
+      exchangeCurrentDensity_A_per_cm2: 2.5e-3,
+      exchangeCurrentLog10_A_per_cm2: Math.log10(2.5e-3),
+      equilibrationTime_s: 4.2e-6,
+      equilibrationTimeLog10_s: Math.log10(4.2e-6),
+      slow: false,
+    },
+    pretreatment: {
+      mode: 'given',
+      reductionTemperature_K: null,
+      oxygenPressure_Pa: null,
+      hydrogenToWater: null,
+      vacancyDensity_cm3: null,
+      equilibrationTemperature_K: null,
+    },
     profile: {
       x_nm,
       conductionBand_eV: ec,
@@ -410,9 +424,10 @@ describe('contact report', () => {
     await expect(writeContactReport(file, fixture, { title: 'x', force: true })).rejects.toBeInstanceOf(InputError);
   });
 
-  it('shows uncertainty and non-convergence when present', async () => {
+  it('shows uncertainty, non-convergence and a slow exchange given as a log', async () => {
     const r = depletionFixture();
     r.solver.converged = false;
+    r.exchange = { ...r.exchange!, exchangeCurrentDensity_A_per_cm2: 0, exchangeCurrentLog10_A_per_cm2: -412.3, equilibrationTime_s: null, equilibrationTimeLog10_s: 402.5, slow: true };
     r.uncertainty = {
       samples: 200,
       seed: 7,
@@ -425,6 +440,9 @@ describe('contact report', () => {
     const out = await writeContactReport(join(work, 'unc'), r, { title: 'u' });
     const html = await readFile(out.htmlPath, 'utf8');
     expect(html).toContain('0.8 / 1.1 / 1.4 eV');
+    expect(html).toContain('10^-412 A/cm^2');
+    expect(html).toContain('10^403 s — slow: more than an hour');
+    expect(formatContactSummary(r, { color: false })).toContain('10^403 s (slow: more than an hour)');
     expect(html).toContain('not-converged');
   });
 });

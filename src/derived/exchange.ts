@@ -74,7 +74,8 @@ export interface EquilibrationTime {
  * approach is slower than this linear ramp, but the exponential dependence on the barrier dominates.
  */
 export function equilibrationTime_s(input: EquilibrationInput): EquilibrationTime {
-  const charge = Math.abs(requireInRange('charge_C_per_m2', input.charge_C_per_m2, -100, 100, 'C/m^2'));
+  // any finite charge is accepted: extreme (unphysical) Boltzmann accumulation layers still get a finite time
+  const charge = Math.abs(requireInRange('charge_C_per_m2', input.charge_C_per_m2, -Number.MAX_VALUE, Number.MAX_VALUE, 'C/m^2'));
   let log10Current: number;
   if (input.log10ExchangeCurrent_A_per_m2 !== undefined) {
     log10Current = requireInRange('log10ExchangeCurrent_A_per_m2', input.log10ExchangeCurrent_A_per_m2, -1e9, 1e9, '(log10 A/m^2)');

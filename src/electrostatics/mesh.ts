@@ -20,6 +20,8 @@ export interface PlanarFirstIntegral {
   depthAtFraction(fraction: number): number;
   /** planar profile u(x) for an initial guess */
   guess(x_m: number): number;
+  /** local length of the planar profile |u / u'| at depth x, m: the scale the mesh must resolve there */
+  localLength(x_m: number): number;
 }
 
 const GEOMETRIC_POINTS = 48;
@@ -39,14 +41,17 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
 
   // fractions s of |u_s|: geometric near 0 (where x(u) diverges logarithmically), uniform above
   const fractions: number[] = [0];
-  const firstUniform = 1 / UNIFORM_POINTS;
+  // at least two points per kT of bending, so sharp ionisation fronts (a few kT wide in u) are seen
+  const uniformPoints = Math.min(4000, Math.max(UNIFORM_POINTS, Math.ceil(2 * magnitude)));
+  const firstUniform = 1 / uniformPoints;
   for (let k = 0; k < GEOMETRIC_POINTS; k++) {
     fractions.push(SMALLEST_FRACTION * Math.pow(firstUniform / SMALLEST_FRACTION, k / GEOMETRIC_POINTS));
   }
-  for (let k = 1; k <= UNIFORM_POINTS; k++) fractions.push(k / UNIFORM_POINTS);
+  for (let k = 1; k <= uniformPoints; k++) fractions.push(k / uniformPoints);
   const m = fractions.length;
   const uValues = new Float64Array(m);
   const gValues = new Float64Array(m);
+  const debyeLengths = new Float64Array(m);
   let previousCharge = 0;
   for (let k = 0; k < m; k++) {
     const u = sign * magnitude * fractions[k]!;
@@ -54,6 +59,8 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
     model.netCharge(xiBulk - u, charge);
     // N has the sign of u (dN/du > 0, N(0) = 0), so G grows monotonically; trapezoid in u
     const currentCharge = k === 0 ? 0 : charge[0]!;
+    // local (generalised) Debye length: resolves carrier layers and defect-ionisation fronts
+    debyeLengths[k] = charge[1]! !== 0 ? 1 / Math.sqrt(beta * Math.abs(charge[1]!)) : Infinity;
     if (k > 0) gValues[k] = gValues[k - 1]! + 0.5 * (previousCharge + currentCharge) * (u - uValues[k - 1]!);
     previousCharge = currentCharge;
   }
@@ -99,7 +106,27 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
     return uValues[1]! * decay;
   };
 
+  const lengths = new Float64Array(m);
+  for (let k = 1; k < m; k++) {
+    const profileLength = slopes[k]! > 0 ? Math.abs(uValues[k]!) / slopes[k]! : Infinity;
+    lengths[k] = Math.min(profileLength, debyeLengths[k]!);
+  }
+  const localLength = (x: number): number => {
+    if (magnitude === 0) return bulkScreening_m;
+    for (let k = m - 2; k >= 1; k--) {
+      const dk = depth[k]!;
+      if (dk >= x) {
+        if (!Number.isFinite(dk)) return lengths[k + 1]!;
+        const d1 = depth[k + 1]!;
+        const t = dk === d1 ? 0 : (x - d1) / (dk - d1);
+        return lengths[k + 1]! + t * (lengths[k]! - lengths[k + 1]!);
+      }
+    }
+    return Number.isFinite(bulkScreening_m) ? bulkScreening_m : lengths[1]!;
+  };
+
   return {
+    localLength,
     magnitude,
     sign,
     bulkScreening_m,
@@ -164,15 +191,23 @@ export function buildMesh(options: MeshOptions): Mesh {
   const layerEnd = Number.isFinite(coreEnd) ? Math.min(coreEnd, end) : end;
   hSurface /= options.refinement;
   hCore /= options.refinement;
+  let scale = 1;
   for (let attempt = 0; attempt < 30; attempt++) {
-    const nodes = generate(end, layerEnd, hSurface, hCore, options.refinement);
+    const nodes = generate(end, layerEnd, hSurface * scale, hCore * scale, options.refinement, (x) => scale * CORE_CELL_FRACTION * fi.localLength(x) / options.refinement);
     if (nodes !== null) return { x: Float64Array.from(nodes), truncated };
-    hCore *= 1.5;
+    scale *= 1.5;
   }
   throw new Error('mesh generation failed');
 }
 
-function generate(end: number, layerEnd: number, hSurface: number, hCore: number, refinement: number): number[] | null {
+function generate(
+  end: number,
+  layerEnd: number,
+  hSurface: number,
+  hCore: number,
+  refinement: number,
+  localCell: (x: number) => number,
+): number[] | null {
   const nodes = [0];
   let x = 0;
   const grading = GRADING / refinement;
@@ -183,7 +218,9 @@ function generate(end: number, layerEnd: number, hSurface: number, hCore: number
     const near = hSurface + grading * x;
     const beyond = x - layerEnd;
     const softplus = beyond > 0 ? beyond + softness * Math.log1p(Math.exp(-beyond / softness)) : softness * Math.log1p(Math.exp(beyond / softness));
-    const far = hCore + tailGrading * softplus;
+    // the profile's own length scale inside the layer, never finer than the surface cell; free growth in the tail
+    const local = Math.max(Math.min(localCell(x), hCore), hSurface);
+    const far = local + tailGrading * softplus;
     const h = 1 / Math.sqrt(1 / (near * near) + 1 / (far * far));
     if (x + h >= end || end - (x + h) < 0.3 * h) {
       nodes.push(end);

@@ -51,7 +51,27 @@ export interface PoissonSolution {
 
 export const DEFAULT_MAX_DOMAIN_M = 100e-6;
 
+/** Richardson correction above which the mesh is refined automatically (relative to the charge). */
+export const REFINE_ABOVE = 1e-3;
+const MAX_AUTOMATIC_DOUBLINGS = 3;
+
+/**
+ * Solve, and refine the mesh automatically while the Richardson correction says the mesh is outside its
+ * asymptotic range (correction > REFINE_ABOVE), up to three doublings.
+ */
 export function solvePoisson(problem: PoissonProblem): PoissonSolution {
+  let refinement = problem.refinement ?? 1;
+  let solution = solvePoissonOnce({ ...problem, refinement });
+  for (let k = 0; k < MAX_AUTOMATIC_DOUBLINGS && solution.chargeErrorEstimate > REFINE_ABOVE; k++) {
+    refinement *= 2;
+    const finer = solvePoissonOnce({ ...problem, refinement });
+    const iterations = solution.iterations + finer.iterations;
+    solution = { ...finer, iterations };
+  }
+  return solution;
+}
+
+function solvePoissonOnce(problem: PoissonProblem): PoissonSolution {
   const { model, geometry } = problem;
   const xiBulk = problem.bulkReducedFermiLevel;
   const uSurface = problem.surfaceBending;
@@ -71,7 +91,13 @@ export function solvePoisson(problem: PoissonProblem): PoissonSolution {
   });
   const coarseGuess = new Float64Array(mesh.x.length);
   for (let i = 0; i < mesh.x.length; i++) coarseGuess[i] = firstIntegral.guess(mesh.x[i]!);
-  const coarse = newtonOnMesh(model, xiBulk, uSurface, beta, geometry, mesh.x, coarseGuess, maxIterations);
+  let coarse: MeshSolution;
+  try {
+    coarse = newtonOnMesh(model, xiBulk, uSurface, beta, geometry, mesh.x, coarseGuess, maxIterations);
+  } catch (error) {
+    if (!(error instanceof ConvergenceError)) throw error;
+    coarse = continuation(model, xiBulk, uSurface, beta, geometry, mesh.x, maxIterations, error);
+  }
   // Richardson extrapolation on the bisected mesh: the scheme is second order, so Q + (Q_f - Q_c)/3 is fourth order
   const fineX = bisectMesh(mesh.x);
   const fineGuess = new Float64Array(fineX.length);
@@ -104,6 +130,44 @@ export function solvePoisson(problem: PoissonProblem): PoissonSolution {
     unextrapolatedCharge_C: { coarse: Q_ELEMENTARY_C * coarse.chargeSum, fine: Q_ELEMENTARY_C * fine.chargeSum },
     firstIntegral,
   };
+}
+
+/**
+ * Fallback when Newton from the first-integral guess fails: raise the interface bending from flat bands in
+ * adaptive steps, each solved from the previous solution (homotopy in the boundary value).
+ */
+function continuation(
+  model: ChargeModel,
+  xiBulk: number,
+  uSurface: number,
+  beta: number,
+  geometry: CrossSection,
+  x: Float64Array,
+  maxIterations: number,
+  original: ConvergenceError,
+): MeshSolution {
+  let lambda = 0;
+  let delta = 0.05;
+  let current: Float64Array = new Float64Array(x.length);
+  let iterations = original.iterations;
+  let last: MeshSolution | null = null;
+  while (lambda < 1) {
+    const next = Math.min(1, lambda + delta);
+    try {
+      const solved = newtonOnMesh(model, xiBulk, next * uSurface, beta, geometry, x, Float64Array.from(current), Math.min(maxIterations, 40));
+      iterations += solved.iterations;
+      current = solved.u;
+      last = solved;
+      lambda = next;
+      delta = Math.min(0.5, delta * 2);
+    } catch (error) {
+      if (!(error instanceof ConvergenceError)) throw error;
+      iterations += error.iterations;
+      delta /= 4;
+      if (delta < 1e-4) throw new ConvergenceError(`${original.reason}; continuation stalled at ${(lambda * 100).toFixed(1)}% of the band bending`, iterations);
+    }
+  }
+  return { ...last!, iterations };
 }
 
 interface MeshSolution {
@@ -147,6 +211,8 @@ function newtonOnMesh(
   let trialUpper: Float64Array = new Float64Array(n);
   const step = new Float64Array(n);
   const work = new Float64Array(n);
+  const work2 = new Float64Array(n);
+  const simplified = new Float64Array(n);
   let trial: Float64Array = new Float64Array(n);
   let trialResidual: Float64Array = new Float64Array(n);
   const charge = new Float64Array(2);
@@ -208,19 +274,41 @@ function newtonOnMesh(
       converged = true;
       break;
     }
-    // damping: cap the largest move, then backtrack until the scaled residual falls
+    // damping (Deuflhard's natural monotonicity test): cap the largest move, then halve the step until the
+    // simplified Newton correction J_old^-1 R(trial) is smaller than the step itself; affine invariant, so it
+    // does not care that node residuals differ by tens of orders of magnitude between interface and bulk
+    let stepNorm = 0;
+    for (let i = 1; i < n; i++) stepNorm += step[i]! * step[i]!;
+    stepNorm = Math.sqrt(stepNorm / (n - 1));
     let t = Math.min(1, stepCap / maxStep);
     let trialNorm = Infinity;
-    for (let halvings = 0; halvings < 40; halvings++) {
+    let accepted = false;
+    for (let halvings = 0; halvings < 50; halvings++) {
       for (let i = 1; i < n; i++) trial[i] = u[i]! + t * step[i]!;
       trial[0] = uSurface;
       trialNorm = evaluate(trial, trialResidual, trialLower, trialDiag, trialUpper);
-      if (Number.isFinite(trialNorm) && trialNorm <= (1 - 0.1 * t) * norm) break;
-      // near the solution rounding can stop the residual from falling: accept a full step that is already tiny
-      if (Number.isFinite(trialNorm) && t === 1 && maxStep < 1e-7 * Math.max(1, Math.abs(uSurface))) break;
+      if (Number.isFinite(trialNorm)) {
+        for (let i = 1; i < n; i++) work2[i] = -trialResidual[i]!;
+        lower[1] = 0;
+        upper[last] = 0;
+        solveTridiagonal(n - 1, lower.subarray(1), diag.subarray(1), upper.subarray(1), work2.subarray(1), simplified.subarray(1), work.subarray(1));
+        let simplifiedNorm = 0;
+        for (let i = 1; i < n; i++) simplifiedNorm += simplified[i]! * simplified[i]!;
+        simplifiedNorm = Math.sqrt(simplifiedNorm / (n - 1));
+        if (Number.isFinite(simplifiedNorm) && simplifiedNorm <= (1 - 0.25 * t) * stepNorm) {
+          accepted = true;
+          break;
+        }
+        // near the solution rounding stops the test from passing: accept a full step that is already tiny
+        if (t === 1 && maxStep < 1e-7 * Math.max(1, Math.abs(uSurface))) {
+          accepted = true;
+          break;
+        }
+      }
       t *= 0.5;
+      if (t * maxStep < 1e-14) break;
     }
-    if (!Number.isFinite(trialNorm)) throw new ConvergenceError('residual overflow during line search', iterations);
+    if (!accepted) throw new ConvergenceError('damped Newton step could not reduce the correction (line search failed)', iterations);
     // accept the trial point: its residual and Jacobian are already computed
     [u, trial] = [trial, u];
     [residual, trialResidual] = [trialResidual, residual];

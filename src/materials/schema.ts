@@ -150,8 +150,14 @@ export const SupportEntrySchema = z
   })
   .strict()
   .superRefine((s, ctx) => {
-    // cross-field physics: electronic screening cannot exceed total screening; defect levels lie in the gap
-    if (s.opticalPermittivity.value > s.staticPermittivity.value) {
+    // cross-field physics: electronic screening cannot exceed total screening; defect levels lie in the gap.
+    // Checked only when the fields themselves are valid, so that one mistake gives one message.
+    const valid = (v: number, b: Bounds) => inBounds(v, b);
+    if (
+      valid(s.opticalPermittivity.value, BOUNDS.opticalPermittivity) &&
+      valid(s.staticPermittivity.value, BOUNDS.staticPermittivity) &&
+      s.opticalPermittivity.value > s.staticPermittivity.value
+    ) {
       ctx.addIssue({
         code: z.ZodIssueCode.custom,
         path: ['opticalPermittivity', 'value'],
@@ -159,6 +165,7 @@ export const SupportEntrySchema = z
       });
     }
     const gap = s.bandGap_eV.value;
+    if (!valid(gap, BOUNDS.bandGap_eV)) return;
     const levels: [string[], number | undefined][] = [
       [['donor', 'level1_eV', 'value'], s.donor?.level1_eV.value],
       [['donor', 'level2_eV', 'value'], s.donor?.level2_eV?.value],

@@ -72,6 +72,18 @@ export function decadeTicks(lo: number, hi: number): number[] {
   return out;
 }
 
+/**
+ * d3 number format for axis labels: plain digits when the magnitudes sit in 1e-3..1e5 (for log axes
+ * both ends are checked), otherwise exponential ("1.5e+5").
+ */
+export function axisFormatFor(values: readonly unknown[], log = false): string {
+  const mags = values.filter(finite).filter((v) => v !== 0).map(Math.abs);
+  if (mags.length === 0) return '~r';
+  const hi = maxOf(mags);
+  const lo = minOf(mags);
+  return hi < 1e5 && (log ? lo >= 1e-3 : hi >= 1e-3) ? '~r' : '.2~e';
+}
+
 /** Symmetric-log transform used by Vega's symlog scale. */
 function symlog(x: number, c: number): number {
   return Math.sign(x) * Math.log1p(Math.abs(x) / c);
@@ -148,7 +160,7 @@ export function bandDiagramSpec(result: ContactResult, opts: BandDiagramOptions 
   const at = (fraction: number): number => (logDepth ? symlogInverse(fraction * span, c) : fraction * span);
   const metalSlab = at(0.25); // metal from -metalSlab to 0
   const xLeft = -metalSlab;
-  const xBarrier = -at(0.08);
+  const xBarrier = -at(0.125); // visual middle of the metal slab on either scale
   const xBending = at(0.93);
 
   const ec0 = pts[0]!.ec;
@@ -183,8 +195,9 @@ export function bandDiagramSpec(result: ContactResult, opts: BandDiagramOptions 
 
   const hole = result.barrierCarrier === 'hole';
   const barrierEdge = hole ? ev0 : ec0;
-  const barrierText = `${hole ? 'hole barrier' : 'barrier'}\n${formatNumber(result.barrierHeight_eV)} eV`;
-  const bendingText = `band bending\n${formatSigned(result.bandBending_eV)} eV`;
+  const barrierText = `${hole ? 'hole barrier' : 'barrier'} ${formatNumber(result.barrierHeight_eV)} eV`;
+  // labels sit just above the upper end of their rule so they never straddle a band or E_F
+  const bendingText = `band bending ${formatSigned(result.bandBending_eV)} eV`;
   const textBase = { type: 'text' as const, fontSize: 11, lineBreak: '\n', color: PALETTE.ink };
 
   const seriesDomain = [BAND_SERIES.vacuum, BAND_SERIES.conduction, BAND_SERIES.valence, BAND_SERIES.fermi];
@@ -195,6 +208,11 @@ export function bandDiagramSpec(result: ContactResult, opts: BandDiagramOptions 
       data: { values: [{ x1: xLeft, x2: 0, y1: yMin, y2: 0 }] },
       mark: { type: 'rect', color: '#dcdcdc', opacity: 0.8 },
       encoding: { x: x('x1'), x2: { field: 'x2' }, y: y('y1'), y2: { field: 'y2' } },
+    },
+    {
+      data: { values: [{ x: 0, y: yMin, label: 'filled metal states' }] },
+      mark: { ...textBase, align: 'right', baseline: 'bottom', dx: -6, dy: -4, color: '#555555', fontSize: 10 },
+      encoding: { x: x('x'), y: y('y'), text: { field: 'label' } },
     },
     // interface
     {
@@ -225,27 +243,27 @@ export function bandDiagramSpec(result: ContactResult, opts: BandDiagramOptions 
           field: 'series',
           type: 'nominal',
           scale: { domain: seriesDomain, range: [PALETTE.purple, PALETTE.blue, PALETTE.orange, PALETTE.ink] },
-          legend: { title: 'level', orient: 'bottom', direction: 'horizontal', columns: 4 },
+          legend: { title: 'level', orient: 'bottom', direction: 'horizontal', columns: 4, labelLimit: 240 },
         },
         strokeDash: {
           field: 'series',
           type: 'nominal',
           scale: { domain: seriesDomain, range: [[2, 3], [1, 0], [1, 0], [7, 4]] },
-          legend: { title: 'level', orient: 'bottom', direction: 'horizontal', columns: 4 },
+          legend: { title: 'level', orient: 'bottom', direction: 'horizontal', columns: 4, labelLimit: 240 },
         },
       },
     },
     // barrier: E_F to the band edge at the interface
     {
-      data: { values: [{ x: xBarrier, y1: 0, y2: barrierEdge, label: barrierText, ymid: barrierEdge / 2 }] },
+      data: { values: [{ x: xBarrier, y1: 0, y2: barrierEdge, label: barrierText, ytop: Math.max(0, barrierEdge) }] },
       layer: [
         {
           mark: { type: 'rule', color: PALETTE.red, strokeWidth: 2.5 },
           encoding: { x: x('x'), y: y('y1'), y2: { field: 'y2' } },
         },
         {
-          mark: { ...textBase, align: 'right', baseline: 'middle', dx: -5 },
-          encoding: { x: x('x'), y: y('ymid'), text: { field: 'label' } },
+          mark: { ...textBase, align: 'center', baseline: 'bottom', dy: -4 },
+          encoding: { x: x('x'), y: y('ytop'), text: { field: 'label' } },
         },
       ],
     },
@@ -256,15 +274,15 @@ export function bandDiagramSpec(result: ContactResult, opts: BandDiagramOptions 
       encoding: { x: x('x1'), x2: { field: 'x2' }, y: y('y') },
     },
     {
-      data: { values: [{ x: xBending, y1: ecBulk, y2: ec0, label: bendingText, ymid: (ecBulk + ec0) / 2 }] },
+      data: { values: [{ x: xBending, y1: ecBulk, y2: ec0, label: bendingText, ytop: Math.max(ecBulk, ec0) }] },
       layer: [
         {
           mark: { type: 'rule', color: PALETTE.green, strokeWidth: 2.5 },
           encoding: { x: x('x'), y: y('y1'), y2: { field: 'y2' } },
         },
         {
-          mark: { ...textBase, align: 'right', baseline: 'middle', dx: -5 },
-          encoding: { x: x('x'), y: y('ymid'), text: { field: 'label' } },
+          mark: { ...textBase, align: 'right', baseline: 'bottom', dx: 4, dy: -4 },
+          encoding: { x: x('x'), y: y('ytop'), text: { field: 'label' } },
         },
       ],
     },
@@ -314,7 +332,7 @@ export function chargeFieldSpec(result: ContactResult, opts: ChargeFieldOptions 
     ...(logDepth ? { values: decadeTicks(xDomain[0]!, xDomain[1]!) } : {}),
   };
 
-  const panel = (field: string, title: string, color: string): Layer => ({
+  const panel = (field: 'charge_C_per_m3' | 'field_V_per_m', title: string, color: string): Layer => ({
     layer: [
       {
         data: { values: [{ zero: 0 }] },
@@ -326,7 +344,7 @@ export function chargeFieldSpec(result: ContactResult, opts: ChargeFieldOptions 
         mark: { type: 'line', color, strokeWidth: 2 },
         encoding: {
           x: { field: 'x_nm', type: 'quantitative', scale: xScale, axis: xAxis },
-          y: { field, type: 'quantitative', title, axis: { format: '.2~e' } },
+          y: { field, type: 'quantitative', title, axis: { format: axisFormatFor(values.map((v) => v[field])) } },
         },
       },
     ],
@@ -345,8 +363,8 @@ export function chargeFieldSpec(result: ContactResult, opts: ChargeFieldOptions 
     vconcat: [
       { width, height, ...chargePanel },
       { width, height, ...fieldPanel },
-    ] as Extract<TopLevelSpec, { vconcat: unknown }>['vconcat'],
-  } as TopLevelSpec;
+    ],
+  };
 }
 
 // ---------------------------------------------------------------- heat map
@@ -396,7 +414,7 @@ export function heatmapSpec(rows: readonly Row[], opts: HeatmapOptions): TopLeve
     domain = [lo - pad, hi + pad];
   }
   const lightText = (v: number): boolean =>
-    diverging ? Math.abs(v) / domain[1] > 0.55 : (v - domain[0]) / (domain[1] - domain[0]) < 0.5;
+    diverging ? Math.abs(v) / domain[1] > 0.65 : (v - domain[0]) / (domain[1] - domain[0]) < 0.5;
 
   const cells: HeatCell[] = picked.map((r) => {
     const raw = r[opts.metricField];
@@ -447,7 +465,7 @@ export function heatmapSpec(rows: readonly Row[], opts: HeatmapOptions): TopLeve
         },
       },
     ],
-  } as TopLevelSpec;
+  };
 }
 
 // ---------------------------------------------------------------- line plot
@@ -497,7 +515,7 @@ export function linePlotSpec(rows: readonly Row[], opts: LinePlotOptions): TopLe
         type: 'quantitative' as const,
         title: opts.xTitle ?? opts.x,
         scale: opts.xLog ? { type: 'log' as const } : { zero: false },
-        axis: { format: '~g' },
+        axis: { format: axisFormatFor(values.map((v) => v.x), opts.xLog === true) },
       }
     : { field: 'x', type: 'ordinal' as const, title: opts.xTitle ?? opts.x, sort: xOrder };
   const yEnc = {
@@ -505,7 +523,7 @@ export function linePlotSpec(rows: readonly Row[], opts: LinePlotOptions): TopLe
     type: 'quantitative' as const,
     title: opts.yTitle ?? opts.y,
     scale: opts.yLog ? { type: 'log' as const } : { zero: false },
-    axis: { format: '~g' },
+    axis: { format: axisFormatFor(values.map((v) => v.y), opts.yLog === true) },
   };
   const colorEnc =
     opts.color === undefined
@@ -527,7 +545,7 @@ export function linePlotSpec(rows: readonly Row[], opts: LinePlotOptions): TopLe
       },
       { mark: { type: 'point', filled: true, size: 40 } },
     ],
-  } as TopLevelSpec;
+  };
 }
 
 // ---------------------------------------------------------------- Mott-Schottky
@@ -575,7 +593,7 @@ export function mottSchottkyFitSpec(
   const line = [lo, hi].map((v) => ({ potential_V: v, inverseCapSquared: fit.slope * v + fit.intercept }));
 
   const x = { field: 'potential_V', type: 'quantitative' as const, title: 'potential (V)', scale: { domain: [lo, hi], nice: false, zero: false } };
-  const y = { field: 'inverseCapSquared', type: 'quantitative' as const, title: opts.yTitle ?? '1/C^2', axis: { format: '.3~g' } };
+  const y = { field: 'inverseCapSquared', type: 'quantitative' as const, title: opts.yTitle ?? '1/C^2', axis: { format: axisFormatFor([...data, ...line].map((p) => p.inverseCapSquared)) } };
   const label = `flat band ${formatNumber(fit.flatBand_V)} V`;
 
   return {
@@ -607,7 +625,7 @@ export function mottSchottkyFitSpec(
         ],
       },
     ],
-  } as TopLevelSpec;
+  };
 }
 
 /** True when the positive depths of the profile span more than two decades (log depth reads better). */

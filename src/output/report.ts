@@ -15,6 +15,7 @@ import {
   bendingInWords,
   directionInWords,
   formatNumber,
+  formatLogQuantity,
   formatQuantity,
   formatSigned,
 } from './summary.js';
@@ -223,8 +224,12 @@ export function contactResultRows(result: ContactResult): ResultRow[] {
   if (result.exchange) {
     const e = result.exchange;
     add('exchange', 'Richardson constant', formatQuantity(e.richardsonConstant_A_per_cm2_K2, 'A/(cm^2 K^2)'));
-    add('exchange', 'exchange current density', formatQuantity(e.exchangeCurrentDensity_A_per_cm2, 'A/cm^2'));
-    add('exchange', 'equilibration time (thermionic exchange)', formatQuantity(e.equilibrationTime_s, 's'));
+    add('exchange', 'exchange current density', formatLogQuantity(e.exchangeCurrentDensity_A_per_cm2, e.exchangeCurrentLog10_A_per_cm2, 'A/cm^2'));
+    add(
+      'exchange',
+      'equilibration time (thermionic exchange)',
+      formatLogQuantity(e.equilibrationTime_s, e.equilibrationTimeLog10_s, 's') + (e.slow ? ' — slow: more than an hour' : ''),
+    );
   } else {
     add('exchange', 'equilibration time', 'not computed');
   }
@@ -235,6 +240,7 @@ export function contactResultRows(result: ContactResult): ResultRow[] {
   add('pretreatment', 'oxygen pressure', formatQuantity(t.oxygenPressure_Pa, 'Pa'));
   add('pretreatment', 'H2/H2O ratio', formatNumber(t.hydrogenToWater));
   add('pretreatment', 'vacancy density', formatQuantity(t.vacancyDensity_cm3, 'cm^-3'));
+  add('pretreatment', 'vacancy equilibration temperature', formatQuantity(t.equilibrationTemperature_K, 'K', 4));
 
   if (result.uncertainty) {
     const u = result.uncertainty;

@@ -33,6 +33,16 @@ export function formatQuantity(value: number | null | undefined, unit: string, s
   return text === 'n/a' || unit === '' ? text : `${text} ${unit}`;
 }
 
+/**
+ * A quantity that may underflow or overflow a double, given with its log10: the plain value when it
+ * is a positive finite number, otherwise "10^<log10>".
+ */
+export function formatLogQuantity(value: number | null, log10: number, unit: string, sig = 3): string {
+  if (value !== null && Number.isFinite(value) && value > 0) return formatQuantity(value, unit, sig);
+  if (!Number.isFinite(log10)) return formatQuantity(value, unit, sig);
+  return `10^${formatNumber(log10, sig)}${unit ? ` ${unit}` : ''}`;
+}
+
 /** The flow direction in words (electrons move in the stated direction until the Fermi levels align). */
 export function directionInWords(direction: FlowDirection): string {
   switch (direction) {
@@ -105,7 +115,11 @@ export function keyResultRows(result: ContactResult): [string, string][] {
     ['electrons per particle', `${formatSigned(result.electronsPerParticle)} (d = ${formatNumber(result.particle.diameter_nm)} nm)`],
   ];
   if (result.exchange) {
-    rows.push(['exchange time', formatQuantity(result.exchange.equilibrationTime_s, 's')]);
+    const e = result.exchange;
+    rows.push([
+      'exchange time',
+      formatLogQuantity(e.equilibrationTime_s, e.equilibrationTimeLog10_s, 's') + (e.slow ? ' (slow: more than an hour)' : ''),
+    ]);
   }
   if (result.uncertainty) {
     const u = result.uncertainty;
