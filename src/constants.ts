@@ -1,23 +1,14 @@
-// Physical constants (CODATA 2018 exact / recommended values), taken from mathjs so there is one source.
-import { create, all } from 'mathjs';
+// Physical constants, CODATA 2018 (E. Tiesinga et al., Rev. Mod. Phys. 93, 025010 (2021)); SI units.
+// Written out here so start-up does not load a units library; test/core.test.ts checks them against
+// mathjs's built-in physical constants.
 
-const math = create(all) as unknown as Record<string, unknown>;
-
-function si(quantity: unknown): number {
-  // mathjs constants are Unit objects; toSI().value gives the SI magnitude.
-  const q = quantity as { value: number | null; toSI?: () => { value: number } };
-  if (typeof q.toSI === 'function') return q.toSI().value;
-  if (typeof q.value === 'number') return q.value;
-  throw new Error('mathjs constant without a numeric value');
-}
-
-export const K_BOLTZMANN_J_PER_K = si(math['boltzmann']);
-export const Q_ELEMENTARY_C = si(math['elementaryCharge']);
-export const H_PLANCK_J_S = si(math['planckConstant']);
-export const M_ELECTRON_KG = si(math['electronMass']);
-export const EPS0_F_PER_M = si(math['electricConstant']);
-export const N_AVOGADRO_PER_MOL = si(math['avogadro']);
-export const R_GAS_J_PER_MOL_K = si(math['gasConstant']);
+export const K_BOLTZMANN_J_PER_K = 1.380649e-23; // exact
+export const Q_ELEMENTARY_C = 1.602176634e-19; // exact
+export const H_PLANCK_J_S = 6.62607015e-34; // exact
+export const M_ELECTRON_KG = 9.1093837015e-31;
+export const EPS0_F_PER_M = 8.8541878128e-12;
+export const N_AVOGADRO_PER_MOL = 6.02214076e23; // exact
+export const R_GAS_J_PER_MOL_K = K_BOLTZMANN_J_PER_K * N_AVOGADRO_PER_MOL;
 export const K_BOLTZMANN_EV_PER_K = K_BOLTZMANN_J_PER_K / Q_ELEMENTARY_C;
 
 /** Thermal energy kT in eV. */

@@ -1,5 +1,5 @@
 // Built-in demo scenario (invented): the "Kestrel" hydrogenation team screens metal nanoparticles on reduced
-// oxide supports and writes up its lead sample HX-14 (Pt on H2-reduced anatase). Sample names are fictional.
+// oxide supports and writes up its lead sample HX-14 (Pt on H2-reduced ceria). Team and sample names are fictional.
 import { existsSync, mkdirSync, readdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { stringify } from 'csv-stringify/sync';
@@ -21,7 +21,7 @@ export interface DemoOptions {
 /** The lead sample: conditions as the (fictional) team would enter them. */
 export const DEMO_SAMPLE: ContactOptions = {
   metal: 'Pt',
-  support: 'TiO2-anatase',
+  support: 'CeO2',
   temperature: '473 K',
   geometry: 'array',
   particleDiameter: '2.5 nm',
@@ -103,7 +103,7 @@ export async function runDemo(options: DemoOptions): Promise<{ summary: string; 
     )
     .join('');
   const paths = await writeContactReport(outDir, lead, {
-    title: 'Sample HX-14 (fictional): Pt on H2-reduced anatase, Kestrel hydrogenation screen',
+    title: 'Sample HX-14 (fictional): Pt on H2-reduced ceria, Kestrel hydrogenation screen',
     force: true,
     extraSections: [
       {

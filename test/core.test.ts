@@ -13,6 +13,7 @@ import {
 } from '../src/bulk/fermiDirac.js';
 import { effectiveDensityOfStates_m3, makeChargeModel, solveBulkNeutrality } from '../src/bulk/equilibrium.js';
 import { CODATA2018, simpson } from './helpers.js';
+import { parseQuantity, unitSpecOf } from '../src/inputs/units.js';
 
 describe('constants', () => {
   it('match CODATA 2018 (Tiesinga et al., Rev. Mod. Phys. 93, 025010 (2021))', () => {
@@ -172,5 +173,28 @@ describe('bulk equilibrium', () => {
         }
       }
     }
+  });
+});
+
+describe('constants and units against mathjs (general-purpose reference library)', () => {
+  it('project constants equal mathjs built-in physical constants (CODATA 2018)', async () => {
+    const { create, all } = await import('mathjs');
+    const math = create(all) as unknown as Record<string, { toSI(): { value: number } }>;
+    expect(math['boltzmann']!.toSI().value).toBe(K_BOLTZMANN_J_PER_K);
+    expect(math['elementaryCharge']!.toSI().value).toBe(Q_ELEMENTARY_C);
+    expect(math['planckConstant']!.toSI().value).toBe(H_PLANCK_J_S);
+    expect(math['electronMass']!.toSI().value).toBe(M_ELECTRON_KG);
+    expect(math['electricConstant']!.toSI().value).toBe(EPS0_F_PER_M);
+  });
+
+  it('bare-number factors equal mathjs conversions of the default units', async () => {
+    const { unit } = await import('mathjs');
+    for (const kind of ['energy', 'volumeDensity', 'arealDensity', 'temperature', 'length', 'pressure'] as const) {
+      const spec = unitSpecOf(kind);
+      expect(unit(1, spec.defaultUnit).toNumber(spec.target) / spec.bareFactor).toBeCloseTo(1, 12);
+    }
+    expect(parseQuantity('T', '300 degC', 'temperature')).toBeCloseTo(573.15, 10);
+    expect(parseQuantity('n', '1e18 cm^-3', 'volumeDensity')).toBeCloseTo(1e24, -10);
+    expect(() => parseQuantity('E', '5 nm', 'energy')).toThrow(/wrong dimension/);
   });
 });

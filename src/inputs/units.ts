@@ -1,6 +1,15 @@
 // Unit parsing at the edges: user strings become SI (or the project's working unit) here and nowhere else.
-import { unit as mathUnit, evaluate, isUnit, type Unit } from 'mathjs';
+import { createRequire } from 'node:module';
+import type { Unit } from 'mathjs';
 import { InputError } from '../errors.js';
+
+type MathJs = typeof import('mathjs');
+let mathjs: MathJs | undefined;
+/** mathjs is loaded on first use (about 0.5 s), so bare-number inputs and --help stay fast. */
+function math(): MathJs {
+  mathjs ??= createRequire(import.meta.url)('mathjs') as MathJs;
+  return mathjs;
+}
 
 export type QuantityInput = number | string;
 
@@ -20,19 +29,26 @@ interface KindSpec {
   target: string;
   /** human text for errors */
   label: string;
+  /** factor from the default unit to the target unit, for bare numbers (checked against mathjs in tests) */
+  bareFactor: number;
 }
 
 const KINDS: Record<QuantityKind, KindSpec> = {
-  energy: { defaultUnit: 'eV', target: 'eV', label: 'an energy (e.g. "5.1 eV")' },
-  volumeDensity: { defaultUnit: 'cm^-3', target: 'm^-3', label: 'a volume density (e.g. "1e18 cm^-3")' },
-  arealDensity: { defaultUnit: 'cm^-2', target: 'm^-2', label: 'an areal density (e.g. "1e11 cm^-2")' },
-  temperature: { defaultUnit: 'K', target: 'K', label: 'a temperature (e.g. "573 K" or "300 degC")' },
-  length: { defaultUnit: 'nm', target: 'm', label: 'a length (e.g. "2 nm")' },
-  pressure: { defaultUnit: 'bar', target: 'Pa', label: 'a pressure (e.g. "1e-20 bar")' },
-  dimensionless: { defaultUnit: '', target: '', label: 'a plain number' },
+  energy: { defaultUnit: 'eV', target: 'eV', label: 'an energy (e.g. "5.1 eV")', bareFactor: 1 },
+  volumeDensity: { defaultUnit: 'cm^-3', target: 'm^-3', label: 'a volume density (e.g. "1e18 cm^-3")', bareFactor: 1e6 },
+  arealDensity: { defaultUnit: 'cm^-2', target: 'm^-2', label: 'an areal density (e.g. "1e11 cm^-2")', bareFactor: 1e4 },
+  temperature: { defaultUnit: 'K', target: 'K', label: 'a temperature (e.g. "573 K" or "300 degC")', bareFactor: 1 },
+  length: { defaultUnit: 'nm', target: 'm', label: 'a length (e.g. "2 nm")', bareFactor: 1e-9 },
+  pressure: { defaultUnit: 'bar', target: 'Pa', label: 'a pressure (e.g. "1e-20 bar")', bareFactor: 1e5 },
+  dimensionless: { defaultUnit: '', target: '', label: 'a plain number', bareFactor: 1 },
 };
 
 /** Default unit a bare number is read in, for help texts. */
+/** Kinds and their default/target units, for tests and help texts. */
+export function unitSpecOf(kind: QuantityKind): Readonly<KindSpec> {
+  return KINDS[kind];
+}
+
 export function defaultUnitOf(kind: QuantityKind): string {
   return KINDS[kind].defaultUnit;
 }
@@ -48,23 +64,23 @@ export function parseQuantity(field: string, input: QuantityInput | undefined | 
   }
   if (typeof input === 'number') {
     if (!Number.isFinite(input)) throw new InputError(field, `not a finite number (${input})`, spec.label);
-    return kind === 'dimensionless' ? input : convert(field, mathUnit(input, spec.defaultUnit), spec);
+    return input * spec.bareFactor;
   }
   if (typeof input !== 'string') throw new InputError(field, `expected a number or a string, got ${typeof input}`, spec.label);
   const text = input.trim();
   const bare = Number(text);
   if (text !== '' && !Number.isNaN(bare) && /^[+-]?(\d|\.\d|Infinity)/.test(text)) {
     if (!Number.isFinite(bare)) throw new InputError(field, `not a finite number ("${text}")`, spec.label);
-    return kind === 'dimensionless' ? bare : convert(field, mathUnit(bare, spec.defaultUnit), spec);
+    return bare * spec.bareFactor;
   }
   if (kind === 'dimensionless') throw new InputError(field, `"${text}" is not a plain number`, spec.label);
   let parsed: unknown;
   try {
-    parsed = evaluate(text);
+    parsed = math().evaluate(text);
   } catch {
     throw new InputError(field, `cannot read "${text}" as a quantity`, spec.label);
   }
-  if (!isUnit(parsed)) throw new InputError(field, `"${text}" has no unit I can read`, spec.label);
+  if (!math().isUnit(parsed)) throw new InputError(field, `"${text}" has no unit I can read`, spec.label);
   return convert(field, parsed, spec, text);
 }
 
