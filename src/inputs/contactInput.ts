@@ -321,14 +321,10 @@ function resolveSupport(
   if (electronAffinity_eV === undefined && options.supportFormula !== undefined) {
     const estimate = estimateElectronAffinity(options.supportFormula, bandGap_eV);
     electronAffinity_eV = estimate.electronAffinity_eV;
-    c.inputs.push({
-      field: 'electron affinity',
-      value: electronAffinity_eV,
-      unit: 'eV',
-      origin: 'estimate',
-      source: 'butler-ginley-1978',
-      note: `estimated from ${options.supportFormula} by the geometric-mean Mulliken electronegativity method (scatter about 0.3-0.5 eV)`,
-    });
+    c.inputs.push({ ...estimate.provenance, field: 'electron affinity' });
+    if (estimate.provenance.min !== undefined && estimate.provenance.max !== undefined) {
+      ranges.set('electronAffinity_eV', [estimate.provenance.min, estimate.provenance.max]);
+    }
   }
   electronAffinity_eV = required(electronAffinity_eV, '--electron-affinity', 'an energy, e.g. "4.2 eV", or --support-formula to estimate it');
   requireInRange('--electron-affinity', electronAffinity_eV, LIMITS.electronAffinity_eV[0], LIMITS.electronAffinity_eV[1], 'eV');
@@ -502,7 +498,7 @@ function resolvePretreatment(
       value: oxygenPressure_bar,
       unit: 'bar',
       origin: 'derived',
-      source: 'nist-janaf-1998',
+      source: 'chase1998',
       note: `water-formation equilibrium, Delta_f G(H2O,g) = ${po2.waterGibbsFormation_kJ_mol.toFixed(2)} kJ/mol at ${equilibrationTemperature_K} K`,
     });
     cautions.push(...HYDROGEN_CAUTIONS);
