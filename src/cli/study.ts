@@ -3,7 +3,7 @@ import type { Command } from 'commander';
 import { readFileSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { InputError } from '../errors.js';
-import { loadStudyFile, sweptColumn, isNumericField, type Study } from '../study/studyFile.js';
+import { loadStudyFile, sweptColumn, isNumericField, axisLength, type Study } from '../study/studyFile.js';
 import { runStudy, RESULT_FILES, type StudyFormat } from '../study/runner.js';
 import { createProgress, type Progress } from '../study/progress.js';
 import { linePlotSpec, type Row } from '../output/figures.js';
@@ -86,7 +86,8 @@ async function writeStudyPlots(study: Study, outDir: string, jsonlPath: string):
     .filter((l) => l.trim() !== '')
     .map((l) => JSON.parse(l) as Row)
     .sort((a, b) => Number(a['index']) - Number(b['index']));
-  const numericAxes = study.sweep.axes.filter((a) => isNumericField(a.field));
+  // x: the numeric axis with the most points; colour: the next axis
+  const numericAxes = study.sweep.axes.filter((a) => isNumericField(a.field)).sort((a, b) => axisLength(b) - axisLength(a));
   if (numericAxes.length === 0 || rows.length === 0) return null;
   const x = sweptColumn(numericAxes[0]!);
   const otherAxes = study.sweep.axes.filter((a) => a !== numericAxes[0]);

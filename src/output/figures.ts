@@ -42,7 +42,7 @@ export const BASE_CONFIG: Config = {
     titleFontSize: 12,
     titleFontWeight: 'normal',
   },
-  legend: { labelFontSize: 11, titleFontSize: 12, titleFontWeight: 'normal', symbolStrokeWidth: 2 },
+  legend: { labelFontSize: 11, titleFontSize: 12, titleFontWeight: 'normal', symbolStrokeWidth: 2, titleLimit: 320 },
   title: { fontSize: 14, fontWeight: 'bold', anchor: 'start', subtitleFontSize: 11, subtitleColor: '#555555' },
 };
 
