@@ -362,6 +362,9 @@ function collectWarnings(out: Warning[], w: WarningContext): void {
   } else if (w.solution.truncated) {
     add('layer-truncated', `the space-charge layer did not decay within ${(w.solution.domain_m * 1e9).toFixed(0)} nm; results are for that depth`);
   }
+  if (s.donors_m3 === 0 && s.acceptors_m3 === 0) {
+    add('undoped-support', 'no donor or acceptor density was given or found in the library: the support is treated as undoped (give --donors, --acceptors or reduction conditions)');
+  }
   const majorityBulk_cm3 = (w.nType ? w.bulk.electronDensity_m3 : w.bulk.holeDensity_m3) * 1e-6;
   if (majorityBulk_cm3 < 1e6) {
     add('insulating-support', `bulk carrier density ${majorityBulk_cm3.toExponential(1)} cm^-3: an insulating support exchanges almost no charge`);
