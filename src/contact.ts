@@ -222,6 +222,7 @@ function assemble(
     acceptorDensity_cm3: s.acceptors_m3 * 1e-6,
     pinningFactor: barrier.pinningFactor,
     chargeDepth90_nm: depth90_nm,
+    supportFullyDepleted: warnings.some((w) => w.code === 'fully-depleted'),
     bulk: {
       electronDensity_cm3: bulk.electronDensity_m3 * 1e-6,
       holeDensity_cm3: bulk.holeDensity_m3 * 1e-6,

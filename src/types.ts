@@ -123,6 +123,8 @@ export interface ContactResult {
   pinningFactor: number | null;
   /** depth from the interface holding 90% of the space charge, nm */
   chargeDepth90_nm: number;
+  /** a finite support grain depleted through its whole thickness (charge capped by the donors available) */
+  supportFullyDepleted: boolean;
   bulk: {
     electronDensity_cm3: number;
     holeDensity_cm3: number;

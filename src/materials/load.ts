@@ -5,7 +5,7 @@
 // dist/materials/load.js when compiled: both are two levels below the root).
 // User files (--materials FILE, JSON or YAML) may hold any of "metals", "supports", "references";
 // an entry whose name (or reference id) already exists replaces the earlier one as a whole.
-import { readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { extname } from 'node:path';
 import { parse as parseYaml } from 'yaml';
@@ -37,8 +37,21 @@ function fail(label: string, message: string): never {
 }
 
 /** Read a JSON or YAML file into plain data. Malformed text gives an InputError naming the file. */
+/** Largest materials file accepted (a library of thousands of entries is far below this). */
+export const MAX_MATERIALS_FILE_BYTES = 5_000_000;
+
 export function readDataFile(path: string, label: string = path): unknown {
   let text: string;
+  let size: number;
+  try {
+    size = statSync(path).size;
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    return fail(label, code === 'ENOENT' ? 'file not found' : `cannot read file (${code ?? String(err)})`);
+  }
+  if (size > MAX_MATERIALS_FILE_BYTES) {
+    return fail(label, `file is ${(size / 1e6).toFixed(1)} MB, larger than the ${MAX_MATERIALS_FILE_BYTES / 1e6} MB limit`);
+  }
   try {
     text = readFileSync(path, 'utf8');
   } catch (err) {
