@@ -139,6 +139,7 @@ export const OUTPUT_PATHS = [
   'acceptorDensity_cm3',
   'pinningFactor',
   'chargeDepth90_nm',
+  'supportFullyDepleted',
   'bulk.electronDensity_cm3',
   'bulk.holeDensity_cm3',
   'bulk.ionizedDonors_cm3',
