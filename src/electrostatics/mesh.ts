@@ -87,22 +87,33 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
     return depth[1]!;
   };
 
+  /**
+   * Linear interpolation of a tabulated quantity at depth x. depth[k] falls as k rises (depth[m-1] = 0 at the
+   * surface, depth[0] = infinity), so the bracket depth[k] >= x >= depth[k+1] is found by bisection.
+   * Returns undefined beyond the deepest finite table point.
+   */
+  const atDepth = (values: Float64Array, x: number): number | undefined => {
+    if (!(depth[1]! >= x)) return undefined;
+    let deep = 1; // depth[deep] >= x
+    let shallow = m - 1; // depth[shallow] <= x
+    while (shallow - deep > 1) {
+      const mid = (deep + shallow) >> 1;
+      if (depth[mid]! >= x) deep = mid;
+      else shallow = mid;
+    }
+    const dk = depth[deep]!;
+    const d1 = depth[shallow]!;
+    const t = dk === d1 ? 0 : (x - d1) / (dk - d1);
+    return values[shallow]! + t * (values[deep]! - values[shallow]!);
+  };
+
   const guess = (x: number): number => {
     if (magnitude === 0) return 0;
     if (x <= 0) return uSurface;
-    // depth decreases with k; find the bracket depth[k] >= x >= depth[k+1]
-    for (let k = m - 2; k >= 1; k--) {
-      const dk = depth[k]!;
-      if (dk >= x) {
-        if (!Number.isFinite(dk)) return uValues[k + 1]!;
-        const d1 = depth[k + 1]!;
-        const t = dk === d1 ? 0 : (x - d1) / (dk - d1);
-        return uValues[k + 1]! + t * (uValues[k]! - uValues[k + 1]!);
-      }
-    }
+    const inside = atDepth(uValues, x);
+    if (inside !== undefined) return inside;
     // beyond the table: linear screening tail
-    const tailStart = depth[1]!;
-    const decay = Number.isFinite(bulkScreening_m) ? Math.exp(-(x - tailStart) / bulkScreening_m) : 1;
+    const decay = Number.isFinite(bulkScreening_m) ? Math.exp(-(x - depth[1]!) / bulkScreening_m) : 1;
     return uValues[1]! * decay;
   };
 
@@ -113,16 +124,7 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
   }
   const localLength = (x: number): number => {
     if (magnitude === 0) return bulkScreening_m;
-    for (let k = m - 2; k >= 1; k--) {
-      const dk = depth[k]!;
-      if (dk >= x) {
-        if (!Number.isFinite(dk)) return lengths[k + 1]!;
-        const d1 = depth[k + 1]!;
-        const t = dk === d1 ? 0 : (x - d1) / (dk - d1);
-        return lengths[k + 1]! + t * (lengths[k]! - lengths[k + 1]!);
-      }
-    }
-    return Number.isFinite(bulkScreening_m) ? bulkScreening_m : lengths[1]!;
+    return atDepth(lengths, Math.max(x, 0)) ?? (Number.isFinite(bulkScreening_m) ? bulkScreening_m : lengths[1]!);
   };
 
   return {
