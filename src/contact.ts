@@ -23,10 +23,12 @@ export function solveContact(options: ContactOptions): ContactResult {
   const resolved = resolveContact(options);
   const result = solveResolved(resolved);
   const samples = options.uncertainty === undefined ? 0 : parseQuantity('--uncertainty', options.uncertainty, 'dimensionless');
+  if (!Number.isInteger(samples) || samples < 0 || samples > 100000) {
+    throw new InputError('--uncertainty', `expected a whole number of samples, got ${samples}`, '0 (off) to 100000');
+  }
+  const seed = options.seed === undefined ? 1 : parseQuantity('--seed', options.seed, 'dimensionless');
+  if (!Number.isInteger(seed) || seed < 0 || seed > 4294967295) throw new InputError('--seed', `expected an integer, got ${seed}`, '0 to 4294967295');
   if (samples > 0) {
-    if (!Number.isInteger(samples)) throw new InputError('--uncertainty', `expected a whole number of samples, got ${samples}`, '1 to 100000');
-    const seed = options.seed === undefined ? 1 : parseQuantity('--seed', options.seed, 'dimensionless');
-    if (!Number.isInteger(seed)) throw new InputError('--seed', `expected an integer, got ${seed}`, '0 to 4294967295');
     result.uncertainty = propagateUncertainty(resolved, solveResolved, samples, seed);
     if (resolved.ranges.size === 0) {
       result.warnings.push({ code: 'no-ranges', message: 'no input has a published range: the uncertainty sampling varied nothing' });

@@ -4,9 +4,9 @@ import { existsSync, mkdirSync, readdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { stringify } from 'csv-stringify/sync';
 import { solveContact, type ContactOptions } from './contact.js';
-import { runScreen, sortScreenRows, SCREEN_COLUMNS } from './screen.js';
-import { writeContactReport, writeScreenReport } from './output/report.js';
-import { heatmapSpec, linePlotSpec } from './output/figures.js';
+import { runScreen, sortScreenRows, writeScreenFolder, SCREEN_COLUMNS } from './screen.js';
+import { writeContactReport } from './output/report.js';
+import { linePlotSpec } from './output/figures.js';
 import { renderSvg, writeFigure, svgForInline } from './output/render.js';
 import { escapeHtml } from './output/escape.js';
 import { loadLibrary } from './materials/load.js';
@@ -80,17 +80,13 @@ export async function runDemo(options: DemoOptions): Promise<{ summary: string; 
     'electronsPerParticle',
   );
   writeFileSync(join(outDir, 'screen.csv'), stringify(screenRows as unknown as Record<string, unknown>[], { header: true, columns: SCREEN_COLUMNS as string[] }));
-  const heatmaps = (['bandBending_eV', 'barrierHeight_eV', 'electronsPerParticle'] as const).map((metric) => ({
-    name: `heatmap-${metric}`,
-    title: metric,
-    spec: heatmapSpec(screenRows, { metricField: metric, title: metric, metals: DEMO_SCREEN.metals, supports: DEMO_SCREEN.supports }),
-  }));
-  await writeScreenReport(join(outDir, 'screen'), screenRows, heatmaps, {
+  await writeScreenFolder(join(outDir, 'screen'), screenRows, {
     title: 'Kestrel team screen: metals x reduced supports, 2.5 nm hemispheres at 473 K, 1e18 cm^-3 donors',
-    force: true,
+    metals: DEMO_SCREEN.metals,
+    supports: DEMO_SCREEN.supports,
     sortBy: 'electronsPerParticle',
-    descending: true,
-    columns: SCREEN_COLUMNS as string[],
+    force: true,
+    preamble: '<p>Part of the demo report for sample HX-14: <a href="../index.html">back to the main report</a>. Data: <a href="../screen.csv">screen.csv</a>.</p>',
   });
 
   // the main report, with the sweep and a link to the screen as extra sections
@@ -109,7 +105,7 @@ export async function runDemo(options: DemoOptions): Promise<{ summary: string; 
       {
         title: 'Particle density (loading) sweep',
         html: `<p>Same sample, particle density varied; other inputs unchanged (no uncertainty sampling). Data: <a href="density-sweep.csv">density-sweep.csv</a>.</p>
-<figure>${svgForInline(sweepSvg, 'electrons per particle against particle density')}</figure>
+<figure>${svgForInline(sweepSvg, 'electrons per particle against particle density')}<figcaption>Electrons gained per Pt particle against the areal particle density (log axis); zones overlap once the 90% charge depth exceeds half the mean spacing.</figcaption></figure>
 <table><thead><tr><th>particles per cm^2</th><th>electrons per particle</th><th>mean spacing (nm)</th><th>90% charge depth (nm)</th><th>zones overlap</th></tr></thead><tbody>${sweepTable}</tbody></table>`,
       },
       {

@@ -25,7 +25,8 @@ export class ConvergenceError extends Error {
 /** Throw InputError unless value is finite and inside [min, max]. */
 export function requireInRange(field: string, value: number, min: number, max: number, unit: string): number {
   if (!Number.isFinite(value) || value < min || value > max) {
-    throw new InputError(field, `value ${formatValue(value)} ${unit} is out of range`, `${min} to ${max} ${unit}`);
+    const suffix = unit === '' ? '' : ` ${unit}`;
+    throw new InputError(field, `value ${formatValue(value)}${suffix} is out of range`, `${min} to ${max}${suffix}`);
   }
   return value;
 }

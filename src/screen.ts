@@ -4,6 +4,8 @@ import { loadLibrary } from './materials/load.js';
 import type { MaterialsLibrary } from './materials/types.js';
 import type { ContactResult } from './types.js';
 import { InputError } from './errors.js';
+import { heatmapSpec } from './output/figures.js';
+import { writeScreenReport, type ReportPaths } from './output/report.js';
 
 export interface ScreenRow {
   metal: string;
@@ -103,3 +105,47 @@ export function sortScreenRows(rows: ScreenRow[], column: string): ScreenRow[] {
     return yn - xn;
   });
 }
+
+const HEATMAP_TITLES: Record<'bandBending_eV' | 'barrierHeight_eV' | 'electronsPerParticle', string> = {
+  bandBending_eV: 'Band bending (eV, positive = bands bend up toward the particle)',
+  barrierHeight_eV: 'Barrier height for the majority carrier (eV)',
+  electronsPerParticle: 'Electrons gained per particle (negative = lost)',
+};
+
+export interface ScreenReportOptions {
+  title: string;
+  metals: string[];
+  supports: string[];
+  sortBy: string;
+  force: boolean;
+  /** trusted HTML placed at the top of the report (e.g. a link back to a parent report) */
+  preamble?: string;
+}
+
+/** Screen report: heat maps, sorted table (columns that are empty in every row left out), warning summary. */
+export function writeScreenFolder(dir: string, rows: ScreenRow[], options: ScreenReportOptions): Promise<ReportPaths> {
+  const figures = (Object.keys(HEATMAP_TITLES) as (keyof typeof HEATMAP_TITLES)[]).map((metric) => ({
+    name: `heatmap-${metric}`,
+    title: HEATMAP_TITLES[metric],
+    spec: heatmapSpec(rows, { metricField: metric, title: HEATMAP_TITLES[metric], legendTitle: metric, metals: options.metals, supports: options.supports }),
+  }));
+  const columns = (SCREEN_COLUMNS as string[]).filter((c) => rows.some((r) => r[c] !== null && r[c] !== ''));
+  const counts = new Map<string, number>();
+  for (const row of rows) for (const code of row.warnings.split(' ').filter((w) => w !== '')) counts.set(code, (counts.get(code) ?? 0) + 1);
+  const failed = rows.filter((r) => r.error !== '');
+  const warnings = [
+    ...[...counts].map(([code, n]) => `${code}: ${n} of ${rows.length} pairs`),
+    ...failed.map((r) => `${r.metal} on ${r.support} failed: ${r.error}`),
+  ];
+  return writeScreenReport(dir, rows, figures, {
+    title: options.title,
+    force: options.force,
+    sortBy: options.sortBy,
+    descending: true,
+    columns,
+    warnings,
+    ...(options.preamble !== undefined ? { extraSections: [{ title: 'Context', html: options.preamble }] } : {}),
+    description: `${options.metals.length} metals x ${options.supports.length} supports, sorted by ${options.sortBy} (largest first). Warning codes per pair are explained in the contact reports; see --help.`,
+  });
+}
+

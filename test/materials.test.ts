@@ -180,6 +180,71 @@ describe('spot checks against published values', () => {
   });
 });
 
+describe('typical densities and defect levels added from the literature survey', () => {
+  const s = (n: string) => lib.supports.get(n)!;
+
+  test('typical donor / acceptor densities (each min/max and value as read)', () => {
+    // Nagao et al., Appl. Phys. Lett. 97, 172112 (2010), arXiv:1009.0400 (abstract read): anatase epitaxial films 1e17-1e21 cm^-3
+    expect([s('TiO2-anatase').typicalDensity_cm3!.min, s('TiO2-anatase').typicalDensity_cm3!.max]).toEqual([1e17, 1e21]);
+    // Landolt-Börnstein III/41D data sheet "transport properties in non-stoichiometric TiO2-x" (transcription read):
+    // reduced rutile crystals n = 3.5e19 ... 4.0e20 cm^-3
+    expect([s('TiO2-rutile').typicalDensity_cm3!.value, s('TiO2-rutile').typicalDensity_cm3!.max]).toEqual([3.5e19, 4.0e20]);
+    // Marley & Dockerty, Phys. Rev. 140, A304 (1965) (abstract read): SnO2 crystals 1e16-5e17 cm^-3
+    expect(s('SnO2').typicalDensity_cm3!.min).toBe(1e16);
+    // Galazka et al., J. Cryst. Growth, doi:10.1016/j.jcrysgro.2011.10.029 (abstract read): melt-grown In2O3 2-3e18, PVT 1.5e19 cm^-3
+    expect([s('In2O3').typicalDensity_cm3!.value, s('In2O3').typicalDensity_cm3!.max]).toEqual([2e18, 1.5e19]);
+    // Schrebler et al., Electrochem. Solid-State Lett. 10, D95 (2007), doi:10.1149/1.2756160: apparent N_D 1.26e19 cm^-3 at 1 kHz
+    expect(s('Fe2O3').typicalDensity_cm3!.value).toBe(1.26e19);
+    // Ravishankar, Bisquert & Kirchartz, Chem. Sci. (2022), doi:10.1039/d1sc06401k: reported photoanode range 1e18-1e21 cm^-3
+    expect([s('Fe2O3').typicalDensity_cm3!.min, s('Fe2O3').typicalDensity_cm3!.max]).toEqual([1e18, 1e21]);
+    // APS March Meeting 2011, abstract P17.00007 (read): SrTiO3 crystals 1e15 to >1e20 cm^-3
+    expect([s('SrTiO3').typicalDensity_cm3!.min, s('SrTiO3').typicalDensity_cm3!.max]).toEqual([1e15, 1e20]);
+    // Yang et al., Mater. Res. 23, e20200275 (2020), doi:10.1590/1980-5373-MR-2020-0275: undoped sputtered Cu2O p = 7.227e14 cm^-3
+    expect(s('Cu2O').typicalDensity_cm3!.value).toBe(7.227e14);
+  });
+
+  test('DEFAULT densities are the geometric middle of their read range, rounded to a decade', () => {
+    let n = 0;
+    for (const rec of lib.supports.values()) {
+      const t = rec.typicalDensity_cm3;
+      if (!t?.note?.startsWith('DEFAULT')) continue;
+      n++;
+      expect(t.min, rec.name).toBeDefined();
+      expect(t.max, rec.name).toBeDefined();
+      const middle = Math.round((Math.log10(t.min!) + Math.log10(t.max!)) / 2);
+      expect(t.value, rec.name).toBe(10 ** middle);
+      expect(t.fromMemory, rec.name).toBe(false);
+    }
+    expect(n).toBeGreaterThanOrEqual(3);
+  });
+
+  test('donor and acceptor levels', () => {
+    // Karsthof, von Wenckstern & Grundmann, arXiv:2010.02694 (2020) (abstract read): V_Ni (0/-) 409 meV above E_V
+    expect(s('NiO').acceptor!.level_eV.value).toBe(0.409);
+    expect(s('NiO').acceptor!.level_eV.fromMemory).toBe(false);
+    // Bierwagen & Speck, Appl. Phys. Lett. 97, 072103 (2010) (abstract read): In2O3 shallow unintentional donor ~17 meV
+    expect(s('In2O3').donor!.level1_eV.value).toBe(0.017);
+    // arXiv:1809.01230 "Donors and deep acceptors in beta-Ga2O3" (abstract read): Si and Ge donors 30 meV
+    expect(s('Ga2O3').donor!.level1_eV.value).toBe(0.03);
+    // Marley & Dockerty, Phys. Rev. 140, A304 (1965) (abstract read): SnO2 donor energy 0.15 eV at infinite dilution
+    expect(s('SnO2').donor!.level2_eV!.value).toBe(0.15);
+    expect(s('SnO2').donor!.level2_eV!.source).toBe('marley1965');
+    // reduced rutile: 0.028 eV (Landolt-Börnstein data sheet) ... 0.68 eV (Cronemeyer, Phys. Rev. 87, 876 (1952), abstract read)
+    const rutile = s('TiO2-rutile').donor!;
+    expect([rutile.type, rutile.level1_eV.value, rutile.level1_eV.min, rutile.level1_eV.max]).toEqual(['single', 0.028, 0.008, 0.68]);
+  });
+
+  test('the new references carry a DOI or a URL, and a note saying what was read', () => {
+    for (const id of ['nagao2010', 'cronemeyer1952', 'lb-tio2-nonstoich', 'schrebler2007', 'marley1965', 'galazka2013', 'bierwagen2010', 'neal2018', 'karsthof2020', 'yang2020cu2o', 'aps2011-srtio3']) {
+      const ref = lib.references.get(id);
+      expect(ref, id).toBeDefined();
+      expect(ref!.note, id).toMatch(/read/);
+      if (ref!.type === 'article-journal' && !['nagao2010', 'bierwagen2010'].includes(id)) expect(ref!.DOI, id).toBeTruthy();
+    }
+    expect(formatCitation(lib.references.get('schrebler2007')!)).toBe('Schrebler et al., Electrochem. Solid-State Lett. 10, D95 (2007), doi:10.1149/1.2756160');
+  });
+});
+
 describe('electron-affinity estimate (Butler & Ginley geometric-mean electronegativity)', () => {
   test('atomic data: electron-affinity sign convention and unit conversion', () => {
     // periodic-table package lists O electron affinity as -141 kJ/mol (energy released): EA(O) = +1.461 eV

@@ -10,7 +10,9 @@
 //    m_e = 0.24 m0, m_h = 0.59 m0, E_g = 3.3 eV, 300 K, band bending +0.8 eV (depletion), semi-infinite support.
 //    - planarSolve:     solvePoisson, PLANAR, Fermi-Dirac statistics (the tool's default)      [headline]
 //    - hemisphereSolve: solvePoisson, hemisphere of radius 1 nm, Fermi-Dirac                   [headline]
-//    - the same two with Boltzmann statistics (extra keys *_boltzmann)
+//    - the same two with Boltzmann statistics (extra keys *_boltzmann). They are timed after the FD cases in the
+//      same process, so the charge model's statistics call sites (makeChargeModel: stats.density/derivative) have
+//      seen both statistics objects and are polymorphic: in a Boltzmann-only process the charge model is cheaper.
 //    The charge model and bulk equilibrium are prepared once outside the timing: only solvePoisson is timed.
 //  CONTACT: full solveContact on the typical support with custom properties (bare numbers in default units,
 //    so the mathjs unit parser is never loaded), empty materials library, ideal Schottky–Mott barrier with the
@@ -30,10 +32,15 @@
 //    outputs bandBending_eV and electronsPerParticle, CSV + JSONL into a temporary folder (removed at the end);
 //    jobs 1 and jobs 2; wall time around runStudy (includes worker start-up and file writing). Also a 4-point
 //    study with jobs 2 to show the fixed worker start-up cost.
-//  BREAKDOWN: manual timers around the pieces of one planar typical solve (first integral, mesh, charge model
-//    calls, tridiagonal solves) to show where the time goes.
+//  BREAKDOWN: manual timers around the pieces of one planar and one hemisphere typical solve (first integral,
+//    mesh, initial guess, charge-model calls, tridiagonal solves, geometry integrals, typed-array allocations) to
+//    show where the time goes; Newton's share is reconstructed from counted charge-model calls (see benchBreakdown).
 //
-// Timing: performance.now() around each call, warm-up first, median (and p10/p90 in the tables).
+// Timing: performance.now() around each call, warm-up first, median (and p10/p90 in the tables). The typical
+// solves and contacts are timed in interleaved rounds (8 x 50 calls per case) so that load from other processes
+// on a shared machine hits every case alike; the best and worst round medians are printed to show that load.
+// The study runs alternate jobs 2 and jobs 1, and report CPU time / wall time (cores actually obtained).
+// Run it at least twice on a shared machine and compare: the JSON carries the load average before and after.
 import { mkdtempSync, rmSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -241,13 +248,17 @@ interface BenchSummary {
   study10k_s_jobs2: number;
   study10k_runs_jobs1: number[];
   study10k_runs_jobs2: number[];
+  study10k_cpuPerWall_jobs1: number;
+  study10k_cpuPerWall_jobs2: number;
   studyStartup_s_jobs2: number;
   scaling: ScalingPoint[];
   scalingExponent: number;
   breakdown_us: Record<string, number>;
+  breakdownHemisphere_us: Record<string, number>;
   targets: Record<string, boolean>;
   node: string;
   cpus: number;
+  loadavgStart: number[];
   loadavg: number[];
   date: string;
   bench_s: number;
@@ -274,33 +285,6 @@ const EMPTY_LIBRARY = (): MaterialsLibrary => ({ metals: new Map(), supports: ne
 // ---------------------------------------------------------------------------------------------
 // sections
 
-const SOLVE_RUNS = 400;
-const SOLVE_WARMUP = 100;
-
-function benchTypicalSolves(): Record<string, { stats: Stats; solution: PoissonSolution }> {
-  const cases: [string, Statistics, CrossSection][] = [
-    ['planar FD', 'fermi-dirac', PLANAR],
-    ['hemisphere r=1nm FD', 'fermi-dirac', hemisphere(TYPICAL.hemisphereRadius_m)],
-    ['planar Boltzmann', 'boltzmann', PLANAR],
-    ['hemisphere r=1nm Boltzmann', 'boltzmann', hemisphere(TYPICAL.hemisphereRadius_m)],
-  ];
-  const out: Record<string, { stats: Stats; solution: PoissonSolution }> = {};
-  const rows: (string | number)[][] = [];
-  for (const [label, statistics, geometry] of cases) {
-    const { problem } = preparePoisson(TYPICAL.donors_cm3, TYPICAL.temperature_K, TYPICAL.bandBending_eV, statistics, geometry);
-    const solution = solvePoisson(problem);
-    const stats = timeUs(() => solvePoisson(problem), SOLVE_RUNS, SOLVE_WARMUP);
-    out[label] = { stats, solution };
-    rows.push([label, stats.median, stats.p10, stats.p90, stats.runs, solution.x_m.length, solution.iterations, solution.chargeErrorEstimate]);
-  }
-  printTable(
-    'solvePoisson, typical case (N_D 1e18 cm^-3, 300 K, +0.8 eV), model + bulk prepared outside the timing',
-    ['case', 'median us', 'p10 us', 'p90 us', 'runs', 'meshPoints', 'iterations', 'Richardson est.'],
-    rows,
-  );
-  return out;
-}
-
 function contactOptions(geometry: 'planar' | 'hemisphere'): ContactOptions {
   // ideal barrier phi_B = Phi_m - chi; band bending = phi_B - (E_C - E_F)_bulk: choose Phi_m for +0.8 eV
   const model = makeChargeModel(supportElectronic(TYPICAL.donors_cm3, TYPICAL.temperature_K, 'fermi-dirac'));
@@ -322,22 +306,104 @@ function contactOptions(geometry: 'planar' | 'hemisphere'): ContactOptions {
   };
 }
 
-function benchContact(): { hemisphere: Stats; planar: Stats } {
-  const rows: (string | number)[][] = [];
-  const result: Partial<{ hemisphere: Stats; planar: Stats }> = {};
-  for (const geometry of ['hemisphere', 'planar'] as const) {
+interface TimedCase {
+  label: string;
+  fn: () => unknown;
+}
+
+interface InterleavedStats extends Stats {
+  /** median of each round: shows how much the machine load moved during the block */
+  roundMedians: number[];
+}
+
+/**
+ * Time several cases in interleaved rounds (warm-up of every case first), so that a burst of load from other
+ * processes hits every case rather than one; per-call microseconds over all rounds.
+ */
+function timeInterleaved(cases: readonly TimedCase[], rounds: number, perRound: number, warmup: number): Map<string, InterleavedStats> {
+  for (const c of cases) for (let i = 0; i < warmup; i++) c.fn();
+  const samples = new Map<string, number[]>(cases.map((c) => [c.label, []]));
+  const roundMedians = new Map<string, number[]>(cases.map((c) => [c.label, []]));
+  for (let r = 0; r < rounds; r++) {
+    for (const c of cases) {
+      const round: number[] = [];
+      for (let i = 0; i < perRound; i++) {
+        const t0 = performance.now();
+        c.fn();
+        round.push((performance.now() - t0) * 1000);
+      }
+      samples.get(c.label)!.push(...round);
+      roundMedians.get(c.label)!.push(median(round));
+    }
+  }
+  return new Map(cases.map((c) => [c.label, { ...statsOf(samples.get(c.label)!), roundMedians: roundMedians.get(c.label)! }]));
+}
+
+const ROUNDS = 8;
+
+/**
+ * The typical-case solves and contacts. Fermi–Dirac cases first and together (solvePoisson planar and hemisphere,
+ * solveContact hemisphere and planar: 8 rounds x 50 calls each after 100 warm-up calls), then the Boltzmann solves
+ * (see the file comment on polymorphic call sites).
+ */
+function benchTypical(): { solves: Map<string, InterleavedStats>; contacts: Map<string, InterleavedStats> } {
+  const solveCases: [string, Statistics, CrossSection][] = [
+    ['planar FD', 'fermi-dirac', PLANAR],
+    ['hemisphere r=1nm FD', 'fermi-dirac', hemisphere(TYPICAL.hemisphereRadius_m)],
+    ['planar Boltzmann', 'boltzmann', PLANAR],
+    ['hemisphere r=1nm Boltzmann', 'boltzmann', hemisphere(TYPICAL.hemisphereRadius_m)],
+  ];
+  const prepared = (statistics: Statistics): { label: string; problem: PoissonProblem; solution: PoissonSolution }[] =>
+    solveCases
+      .filter(([, st]) => st === statistics)
+      .map(([label, st, geometry]) => {
+        const { problem } = preparePoisson(TYPICAL.donors_cm3, TYPICAL.temperature_K, TYPICAL.bandBending_eV, st, geometry);
+        return { label, problem, solution: solvePoisson(problem) };
+      });
+  const contactCases = (['hemisphere', 'planar'] as const).map((geometry) => {
     const options = contactOptions(geometry);
-    const r = solveContact(options);
-    const stats = timeUs(() => solveContact(options), 300, 50);
-    result[geometry] = stats;
-    rows.push([geometry === 'hemisphere' ? 'hemisphere d=2nm' : 'planar', stats.median, stats.p10, stats.p90, stats.runs, r.bandBending_eV, r.solver.meshPoints, r.profile.x_nm.length]);
+    return { label: geometry === 'hemisphere' ? 'contact hemisphere d=2nm' : 'contact planar', options, result: solveContact(options) };
+  });
+
+  const fd = prepared('fermi-dirac');
+  const fdStats = timeInterleaved(
+    [...fd.map((c) => ({ label: c.label, fn: () => solvePoisson(c.problem) })), ...contactCases.map((c) => ({ label: c.label, fn: () => solveContact(c.options) }))],
+    ROUNDS,
+    50,
+    100,
+  );
+  const boltzmann = prepared('boltzmann');
+  const bStats = timeInterleaved(
+    boltzmann.map((c) => ({ label: c.label, fn: () => solvePoisson(c.problem) })),
+    ROUNDS,
+    50,
+    100,
+  );
+  const solves = new Map<string, InterleavedStats>();
+  const rows: (string | number)[][] = [];
+  for (const c of [...fd, ...boltzmann]) {
+    const st = fdStats.get(c.label) ?? bStats.get(c.label)!;
+    solves.set(c.label, st);
+    rows.push([c.label, st.median, st.p10, st.p90, Math.min(...st.roundMedians), Math.max(...st.roundMedians), st.runs, c.solution.x_m.length, c.solution.iterations, c.solution.chargeErrorEstimate]);
   }
   printTable(
-    'solveContact (custom properties, empty library, FD, +0.8 eV)',
-    ['case', 'median us', 'p10 us', 'p90 us', 'runs', 'bandBending eV', 'meshPoints', 'profile pts'],
+    'solvePoisson, typical case (N_D 1e18 cm^-3, 300 K, +0.8 eV), model + bulk prepared outside the timing',
+    ['case', 'median us', 'p10 us', 'p90 us', 'best round', 'worst round', 'runs', 'meshPoints', 'iterations', 'Richardson est.'],
     rows,
   );
-  return result as { hemisphere: Stats; planar: Stats };
+  const contacts = new Map<string, InterleavedStats>();
+  const contactRows: (string | number)[][] = [];
+  for (const c of contactCases) {
+    const st = fdStats.get(c.label)!;
+    contacts.set(c.label, st);
+    contactRows.push([c.label, st.median, st.p10, st.p90, Math.min(...st.roundMedians), Math.max(...st.roundMedians), st.runs, c.result.bandBending_eV, c.result.solver.meshPoints]);
+  }
+  printTable(
+    'solveContact (custom properties, empty library, FD, +0.8 eV; interleaved with the FD solves above)',
+    ['case', 'median us', 'p10 us', 'p90 us', 'best round', 'worst round', 'runs', 'bandBending eV', 'meshPoints'],
+    contactRows,
+  );
+  return { solves, contacts };
 }
 
 interface AccuracyCase {
@@ -399,12 +465,27 @@ function benchScaling(): ScalingPoint[] {
 }
 
 /**
- * Where the time of one planar typical solve goes, with manual timers around the pieces solvePoisson uses
- * (the pieces are re-run here in the same way; Newton itself is not exported, so its work is reconstructed from
- * call counts: charge-model calls counted by a wrapper, one tridiagonal solve per charge-model sweep of a mesh).
+ * Where the time of one typical solve goes, with manual timers around the pieces solvePoisson uses (re-run
+ * here the same way). Newton itself is not exported, so its work is reconstructed from call counts: charge-model
+ * calls counted by a wrapper model; every residual evaluation is one model call per node; the tridiagonal solves
+ * (one per Newton step, one per line-search trial) are estimated from those sweeps and the iteration count; the
+ * typed arrays solvePoisson allocates are counted from the source (6 in the first integral, 2 + 18 per coarse
+ * mesh, 2 + 18 per fine mesh). Values are us unless the key says otherwise; *_est are estimates.
  */
-function benchBreakdown(totalSolve_us: number): Record<string, number> {
-  const { model, problem } = preparePoisson(TYPICAL.donors_cm3, TYPICAL.temperature_K, TYPICAL.bandBending_eV, 'fermi-dirac', PLANAR);
+const TIMED_PIECES = new Set([
+  'firstIntegral',
+  'buildMesh_coarse',
+  'initialGuess',
+  'bisectMesh',
+  'netCharge_newton_est',
+  'tridiagonal_total_est',
+  'geometry_total_est',
+  'typedArray_alloc_total_est',
+  'unaccounted_est',
+]);
+
+function benchBreakdown(label: string, geometry: CrossSection, totalSolve_us: number): Record<string, number> {
+  const { model, problem } = preparePoisson(TYPICAL.donors_cm3, TYPICAL.temperature_K, TYPICAL.bandBending_eV, 'fermi-dirac', geometry);
   const beta =
     (Q_ELEMENTARY_C * Q_ELEMENTARY_C) / (problem.relativePermittivity * EPS0_F_PER_M * K_BOLTZMANN_J_PER_K * problem.temperature_K);
   const xi = problem.bulkReducedFermiLevel;
@@ -412,7 +493,7 @@ function benchBreakdown(totalSolve_us: number): Record<string, number> {
 
   const firstIntegral = timeUs(() => planarFirstIntegral(model, xi, us, beta), 400, 100);
   const fi = planarFirstIntegral(model, xi, us, beta);
-  const meshOptions = { firstIntegral: fi, maxDomain_m: DEFAULT_MAX_DOMAIN_M, refinement: 1, geometry: PLANAR };
+  const meshOptions = { firstIntegral: fi, maxDomain_m: DEFAULT_MAX_DOMAIN_M, refinement: 1, geometry };
   const mesh = buildMesh(meshOptions);
   const meshTime = timeUs(() => buildMesh(meshOptions), 400, 100);
   const guessTime = timeUs(() => {
@@ -432,18 +513,15 @@ function benchBreakdown(totalSolve_us: number): Record<string, number> {
       model.netCharge(x, out);
     },
   };
-  let fiCalls = 0;
-  {
-    calls = 0;
-    planarFirstIntegral(counting, xi, us, beta);
-    fiCalls = calls;
-  }
+  calls = 0;
+  planarFirstIntegral(counting, xi, us, beta);
+  const fiCalls = calls;
   calls = 0;
   const solution = solvePoisson({ ...problem, model: counting });
   // solvePoisson may re-solve on finer meshes (automatic refinement): find how many passes it made
   let passes = 1;
   for (let r = 1; r <= 8 && bisectMesh(buildMesh({ ...meshOptions, refinement: r }).x).length !== solution.x_m.length; r *= 2) passes++;
-  const solveCalls = calls - fiCalls * passes;
+  const newtonCalls = calls - fiCalls * passes;
   const coarseN = mesh.x.length;
   const fineN = fine.length;
 
@@ -466,14 +544,32 @@ function benchBreakdown(totalSolve_us: number): Record<string, number> {
   const tri = timeUs(() => solveTridiagonal(n, lower, diag, upper, rhs, sol, work), 400, 100);
   const triNsPerNode = (tri.median * 1000) / n;
 
-  // node sweeps: every residual evaluation calls the model once per node, and is followed by one tridiagonal solve
-  // (the Newton step or the simplified correction); the final charge sum is one more model sweep per mesh
-  const nodeSweeps = solveCalls; // model calls inside Newton = node-sweeps x nodes
-  const netChargeTotal_us = (nodeSweeps * netChargeNs) / 1000;
-  const tridiagonalTotal_us = (nodeSweeps * triNsPerNode) / 1000;
-  const meanNodes = (coarseN + fineN) / 2;
-  const evaluations = nodeSweeps / meanNodes;
+  // geometry integrals: newtonOnMesh calls volume twice and faceArea once per cell
+  const geometryTime = timeUs(() => {
+    let s = 0;
+    for (let i = 0; i < fineN - 1; i++) s += geometry.volume(fine[i]!, fine[i + 1]!) + geometry.volume(fine[i]!, fine[i + 1]!) + geometry.faceArea(fine[i]!, fine[i + 1]!);
+    return s;
+  }, 400, 100);
+  const geometryNsPerCell = (geometryTime.median * 1000) / (fineN - 1);
 
+  // typed-array allocation (kept alive so that it cannot be optimised away)
+  const keep: Float64Array[] = new Array<Float64Array>(64);
+  let slot = 0;
+  const allocNs = (size: number): number => {
+    const t = timeUs(() => {
+      for (let k = 0; k < 20; k++) keep[slot++ & 63] = new Float64Array(size);
+    }, 400, 100);
+    return (t.median * 1000) / 20;
+  };
+  const allocCoarse = allocNs(coarseN);
+  const allocFine = allocNs(fineN);
+
+  // node sweeps: Newton calls the model once per node per residual evaluation, plus one final charge-sum sweep per mesh
+  const finalSweeps = coarseN + fineN;
+  const evaluationNodes = newtonCalls - finalSweeps;
+  const meanNodes = (coarseN + fineN) / 2;
+  // tridiagonal solves = Newton steps + line-search trials = iterations + (evaluations - 1 per mesh)
+  const tridiagonalNodes = evaluationNodes - finalSweeps + solution.iterations * meanNodes;
   const b: Record<string, number> = {
     solve_total: round(totalSolve_us),
     firstIntegral: round(firstIntegral.median),
@@ -481,22 +577,37 @@ function benchBreakdown(totalSolve_us: number): Record<string, number> {
     initialGuess: round(guessTime.median),
     bisectMesh: round(bisectTime.median),
     netCharge_ns_per_call: round(netChargeNs),
-    netCharge_calls_per_solve: solveCalls,
-    netCharge_total_est: round(netChargeTotal_us),
+    netCharge_calls_in_newton: newtonCalls,
+    netCharge_newton_est: round((newtonCalls * netChargeNs) / 1000),
+    residual_evaluations_est: round(evaluationNodes / meanNodes, 3),
     tridiagonal_ns_per_node: round(triNsPerNode),
-    tridiagonal_total_est: round(tridiagonalTotal_us),
-    residual_evaluations_est: round(evaluations, 3),
+    tridiagonal_total_est: round((tridiagonalNodes * triNsPerNode) / 1000),
+    geometry_ns_per_cell: round(geometryNsPerCell),
+    geometry_total_est: round((geometryNsPerCell * (coarseN + fineN - 2)) / 1000),
+    typedArray_alloc_ns_coarse: round(allocCoarse),
+    typedArray_alloc_ns_fine: round(allocFine),
+    typedArray_allocs: 6 + 20 + 20,
+    typedArray_alloc_total_est: round((6 * allocFine + 20 * allocCoarse + 20 * allocFine) / 1000), // first-integral tables have ~fine size
     newton_iterations: solution.iterations,
     solve_passes: passes,
     coarse_points: coarseN,
     fine_points: fineN,
   };
-  const accounted = b.firstIntegral! + b.buildMesh_coarse! + b.initialGuess! + b.bisectMesh! + b.netCharge_total_est! + b.tridiagonal_total_est!;
-  b.unaccounted_est = round(totalSolve_us - accounted);
+  const accounted =
+    b.firstIntegral! +
+    b.buildMesh_coarse! +
+    b.initialGuess! +
+    b.bisectMesh! +
+    b.netCharge_newton_est! +
+    b.tridiagonal_total_est! +
+    b.geometry_total_est! +
+    b.typedArray_alloc_total_est!;
+  // firstIntegral, mesh and guess are repeated for every pass
+  b.unaccounted_est = round(totalSolve_us - accounted - (passes - 1) * (b.firstIntegral! + b.buildMesh_coarse! + b.initialGuess!));
   printTable(
-    'breakdown of one planar typical solve (FD), us unless stated',
-    ['piece', 'value'],
-    Object.entries(b).map(([k, v]) => [k, v]),
+    `breakdown of one ${label} typical solve (FD), us unless stated; *_est are estimates`,
+    ['piece', 'value', '% of solve'],
+    Object.entries(b).map(([k, v]) => [k, v, TIMED_PIECES.has(k) ? ((100 * v) / totalSolve_us).toFixed(1) : '']),
   );
   return b;
 }
@@ -556,36 +667,48 @@ function studyOf(points: number): ReturnType<typeof parseStudy> {
   );
 }
 
-async function benchStudy(): Promise<{ jobs1: number[]; jobs2: number[]; startup2: number; failed: number }> {
+interface StudyRun {
+  wall_s: number;
+  /** CPU time of the whole process (all threads, from process.cpuUsage) over wall time: cores actually used */
+  cpuPerWall: number;
+}
+
+async function benchStudy(): Promise<{ jobs1: StudyRun[]; jobs2: StudyRun[]; startup2: number; failed: number }> {
   const dir = mkdtempSync(join(tmpdir(), 'bandbend-bench-'));
   try {
     const big = studyOf(100);
     const small = studyOf(2);
     let failed = 0;
-    const run = async (study: typeof big, jobs: number): Promise<number> => {
+    const run = async (study: typeof big, jobs: number): Promise<StudyRun> => {
+      const cpu0 = process.cpuUsage();
       const t0 = performance.now();
       const summary = await runStudy({ study, outDir: join(dir, `jobs${jobs}`), jobs, force: true });
-      const s = (performance.now() - t0) / 1000;
+      const wall_s = (performance.now() - t0) / 1000;
+      const cpu = process.cpuUsage(cpu0);
       if (study === big) failed = summary.failed;
-      return s;
+      return { wall_s, cpuPerWall: (cpu.user + cpu.system) / 1e6 / wall_s };
     };
     // start-up: 4 points on 2 workers, median of 3
     const startup: number[] = [];
-    for (let i = 0; i < 3; i++) startup.push(await run(small, 2));
-    const jobs1: number[] = [];
-    const jobs2: number[] = [];
+    for (let i = 0; i < 3; i++) startup.push((await run(small, 2)).wall_s);
+    const jobs1: StudyRun[] = [];
+    const jobs2: StudyRun[] = [];
     const first1 = await run(big, 1);
     jobs1.push(first1);
-    const reps = first1 > 30 ? 2 : 3;
-    for (let i = 1; i < reps; i++) jobs1.push(await run(big, 1));
-    for (let i = 0; i < reps; i++) jobs2.push(await run(big, 2));
+    const reps = first1.wall_s > 30 ? 2 : 3;
+    // alternate jobs 1 and jobs 2 so that a change in machine load hits both
+    for (let i = 0; i < reps; i++) {
+      jobs2.push(await run(big, 2));
+      if (jobs1.length < reps) jobs1.push(await run(big, 1));
+    }
+    const wall = (r: StudyRun[]): number[] => r.map((x) => x.wall_s);
     printTable(
       'runStudy 100 x 100 (donors log 1e16..1e19 cm^-3 x 300..700 K, hemisphere 2 nm, CSV + JSONL), wall time',
-      ['jobs', 'runs (s)', 'median s', 'points/s', 'failed'],
+      ['jobs', 'runs (s)', 'median s', 'points/s', 'cpu/wall', 'failed'],
       [
-        [1, jobs1.map((s) => s.toFixed(2)).join(' '), median(jobs1), 10000 / median(jobs1), failed],
-        [2, jobs2.map((s) => s.toFixed(2)).join(' '), median(jobs2), 10000 / median(jobs2), failed],
-        ['2 (4 points: start-up)', startup.map((s) => s.toFixed(3)).join(' '), median(startup), NaN, 0],
+        [1, wall(jobs1).map((s) => s.toFixed(2)).join(' '), median(wall(jobs1)), 10000 / median(wall(jobs1)), median(jobs1.map((r) => r.cpuPerWall)), failed],
+        [2, wall(jobs2).map((s) => s.toFixed(2)).join(' '), median(wall(jobs2)), 10000 / median(wall(jobs2)), median(jobs2.map((r) => r.cpuPerWall)), failed],
+        ['2 (4 points: start-up)', startup.map((s) => s.toFixed(3)).join(' '), median(startup), NaN, NaN, 0],
       ],
     );
     return { jobs1, jobs2, startup2: median(startup), failed };
@@ -598,13 +721,14 @@ async function benchStudy(): Promise<{ jobs1: number[]; jobs2: number[]; startup
 
 async function main(): Promise<void> {
   const started = performance.now();
+  const loadavgStart = loadavg().map((l) => round(l, 3));
   console.log(`# bandbend bench: node ${process.version}, ${cpus().length} cpus, load average ${loadavg().map((l) => l.toFixed(2)).join(' ')}`);
 
-  const typical = benchTypicalSolves();
-  const contact = benchContact();
+  const { solves: typical, contacts: contact } = benchTypical();
   const accuracy = benchAccuracy();
   const scaling = benchScaling();
-  const breakdown = benchBreakdown(typical['planar FD']!.stats.median);
+  const breakdown = benchBreakdown('planar', PLANAR, typical.get('planar FD')!.median);
+  const breakdownHemisphere = benchBreakdown('hemisphere r=1nm', hemisphere(TYPICAL.hemisphereRadius_m), typical.get('hemisphere r=1nm FD')!.median);
   const screen = benchScreen();
   const study = await benchStudy();
 
@@ -615,29 +739,33 @@ async function main(): Promise<void> {
     scaling.map((s) => s.solve_us),
   );
   const summary: BenchSummary = {
-    planarSolve_us_median: round(typical['planar FD']!.stats.median),
-    hemisphereSolve_us_median: round(typical['hemisphere r=1nm FD']!.stats.median),
-    planarSolve_us_median_boltzmann: round(typical['planar Boltzmann']!.stats.median),
-    hemisphereSolve_us_median_boltzmann: round(typical['hemisphere r=1nm Boltzmann']!.stats.median),
-    contactSolve_us_median: round(contact.hemisphere.median),
-    contactSolvePlanar_us_median: round(contact.planar.median),
+    planarSolve_us_median: round(typical.get('planar FD')!.median),
+    hemisphereSolve_us_median: round(typical.get('hemisphere r=1nm FD')!.median),
+    planarSolve_us_median_boltzmann: round(typical.get('planar Boltzmann')!.median),
+    hemisphereSolve_us_median_boltzmann: round(typical.get('hemisphere r=1nm Boltzmann')!.median),
+    contactSolve_us_median: round(contact.get('contact hemisphere d=2nm')!.median),
+    contactSolvePlanar_us_median: round(contact.get('contact planar')!.median),
     planarRelError_max: round(Math.max(...relErrors), 3),
     planarRelError_median: round(median(relErrors), 3),
     planarRelError_worstCase: worst.label,
     newtonIterations_median: median(accuracy.map((c) => c.iterations)),
     meshPoints_median: median(accuracy.map((c) => c.meshPoints)),
     screen400_s: round(screen.stats.median),
-    study10k_s_jobs1: round(median(study.jobs1)),
-    study10k_s_jobs2: round(median(study.jobs2)),
-    study10k_runs_jobs1: study.jobs1.map((s) => round(s)),
-    study10k_runs_jobs2: study.jobs2.map((s) => round(s)),
+    study10k_s_jobs1: round(median(study.jobs1.map((r) => r.wall_s))),
+    study10k_s_jobs2: round(median(study.jobs2.map((r) => r.wall_s))),
+    study10k_runs_jobs1: study.jobs1.map((r) => round(r.wall_s)),
+    study10k_runs_jobs2: study.jobs2.map((r) => round(r.wall_s)),
+    study10k_cpuPerWall_jobs1: round(median(study.jobs1.map((r) => r.cpuPerWall)), 3),
+    study10k_cpuPerWall_jobs2: round(median(study.jobs2.map((r) => r.cpuPerWall)), 3),
     studyStartup_s_jobs2: round(study.startup2),
     scaling,
     scalingExponent: round(scalingExponent, 3),
     breakdown_us: breakdown,
+    breakdownHemisphere_us: breakdownHemisphere,
     targets: {},
     node: process.version,
     cpus: cpus().length,
+    loadavgStart,
     loadavg: loadavg().map((l) => round(l, 3)),
     date: new Date().toISOString(),
     bench_s: 0,

@@ -116,6 +116,8 @@ export function makeChargeModel(support: SupportElectronic): ChargeModel {
   const fullDonorCharge = doubleDonor ? 2 : 1;
 
   const scratch = new Float64Array(2);
+  const carriers = new Float64Array(4);
+  const pair = stats.pair;
   const donorLogWeights = [0, 0, 0];
   const doubleCharges = [0, 1, 2];
 
@@ -183,9 +185,10 @@ export function makeChargeModel(support: SupportElectronic): ChargeModel {
       return na * scratch[0]!;
     },
     netCharge(xi, out) {
-      const etaHoles = -xi - reducedGap;
-      let value = valenceDos_m3 * stats.density(etaHoles) - conductionDos_m3 * stats.density(xi);
-      let slope = -valenceDos_m3 * stats.derivative(etaHoles) - conductionDos_m3 * stats.derivative(xi);
+      pair(-xi - reducedGap, carriers, 0);
+      pair(xi, carriers, 2);
+      let value = valenceDos_m3 * carriers[0]! - conductionDos_m3 * carriers[2]!;
+      let slope = -valenceDos_m3 * carriers[1]! - conductionDos_m3 * carriers[3]!;
       if (nd !== 0) {
         donorState(xi, scratch);
         value += nd * scratch[0]!;

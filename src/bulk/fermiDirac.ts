@@ -167,8 +167,57 @@ export function logFermiDiracHalf(eta: number): number {
   return Math.log(fermiDiracHalf(eta));
 }
 
+/**
+ * F_{1/2}(eta) and F_{-1/2}(eta) together, written to out[offset], out[offset + 1]: one exp, one series or one
+ * table bracket for both, which is what the Poisson Jacobian needs at every node.
+ */
+export function fermiDiracPair(eta: number, out: Float64Array, offset: number): void {
+  if (eta < ETA_SERIES_MAX) {
+    const x = Math.exp(eta);
+    let value = x;
+    let slope = x;
+    let power = x;
+    const threshold = 1e-17 * x;
+    for (let k = 2; k <= SERIES_TERMS; k++) {
+      power *= x;
+      if (power < threshold) break;
+      value += power * SERIES_HALF[k]!;
+      slope += power * SERIES_MINUS_HALF[k]!;
+    }
+    out[offset] = value;
+    out[offset + 1] = slope;
+    return;
+  }
+  if (eta > ETA_ASYMPTOTIC_MIN) {
+    out[offset] = sommerfeld(eta, 0.5, GAMMA_5_2);
+    out[offset + 1] = sommerfeld(eta, -0.5, GAMMA_3_2);
+    return;
+  }
+  const position = (eta - TABLE_MIN) / TABLE_STEP;
+  let i = Math.floor(position);
+  if (i >= TABLE_SIZE - 1) i = TABLE_SIZE - 2;
+  const t = position - i;
+  const t2 = t * t;
+  const t3 = t2 * t;
+  const h00 = 2 * t3 - 3 * t2 + 1;
+  const h10 = (t3 - 2 * t2 + t) * TABLE_STEP;
+  const h01 = -2 * t3 + 3 * t2;
+  const h11 = (t3 - t2) * TABLE_STEP;
+  out[offset] = h00 * tableHalf[i]! + h10 * tableMinusHalf[i]! + h01 * tableHalf[i + 1]! + h11 * tableMinusHalf[i + 1]!;
+  out[offset + 1] = h00 * tableMinusHalf[i]! + h10 * tableMinus3Half[i]! + h01 * tableMinusHalf[i + 1]! + h11 * tableMinus3Half[i + 1]!;
+}
+
+/** exp(eta) twice, the Boltzmann counterpart of fermiDiracPair. */
+export function boltzmannPair(eta: number, out: Float64Array, offset: number): void {
+  const value = Math.exp(eta);
+  out[offset] = value;
+  out[offset + 1] = value;
+}
+
 /** Carrier statistics: FD or Boltzmann, with the same interface (value and derivative in eta). */
 export interface CarrierStatistics {
+  /** value and eta-derivative at once, into out[offset], out[offset + 1] */
+  pair(eta: number, out: Float64Array, offset: number): void;
   /** occupancy integral: F_{1/2}(eta) or exp(eta) */
   density(eta: number): number;
   /** its eta-derivative */
@@ -178,12 +227,14 @@ export interface CarrierStatistics {
 }
 
 export const FERMI_DIRAC: CarrierStatistics = {
+  pair: fermiDiracPair,
   density: fermiDiracHalf,
   derivative: fermiDiracMinusHalf,
   logDensity: logFermiDiracHalf,
 };
 
 export const BOLTZMANN: CarrierStatistics = {
+  pair: boltzmannPair,
   density: Math.exp,
   derivative: Math.exp,
   logDensity: (eta) => eta,

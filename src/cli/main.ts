@@ -1,18 +1,17 @@
 // The `bandbend` command line. Exit codes: 0 ok, 2 bad input (one line naming the field), 1 internal error.
 import { Command, CommanderError, Option } from 'commander';
-import { readFileSync, existsSync, statSync, writeFileSync, mkdirSync } from 'node:fs';
-import { join } from 'node:path';
+import { readFileSync, existsSync, statSync, writeFileSync } from 'node:fs';
 import { stringify } from 'csv-stringify/sync';
-import { InputError, ConvergenceError } from '../errors.js';
+import { InputError, ConvergenceError, requireInRange } from '../errors.js';
 import { solveContact } from '../contact.js';
 import { addContactFlags, contactOptionsFrom } from './options.js';
 import { formatContactSummary } from '../output/summary.js';
-import { writeContactReport, writeScreenReport } from '../output/report.js';
-import { heatmapSpec, mottSchottkyFitSpec } from '../output/figures.js';
+import { writeContactReport } from '../output/report.js';
+import { mottSchottkyFitSpec } from '../output/figures.js';
 import { renderSvg } from '../output/render.js';
 import { loadLibrary, findMetal, findSupport, formatCitation } from '../materials/load.js';
 import type { MaterialsLibrary, PropertyValue } from '../materials/types.js';
-import { runScreen, sortScreenRows, SCREEN_COLUMNS, type ScreenRow } from '../screen.js';
+import { runScreen, sortScreenRows, writeScreenFolder, SCREEN_COLUMNS, type ScreenRow } from '../screen.js';
 import { parseCapacitanceCsv, fitMottSchottky, parseReferenceElectrode } from '../derived/mottSchottky.js';
 import { parseQuantity } from '../inputs/units.js';
 import { createProgress } from '../study/progress.js';
@@ -36,6 +35,10 @@ CSV columns: potential_V and capacitance_F (with --area) or capacitance_F_per_cm
 Examples:
   bandbend mott-schottky data.csv --permittivity 31 --area 0.5cm^2 --reference Ag/AgCl
   bandbend mott-schottky data.csv --permittivity 8.5 --reference RHE --ph 7 --json`,
+  demo: `
+Examples:
+  bandbend demo                      # writes reports/demo (fails if it exists and is not empty)
+  bandbend demo --out /tmp/demo --force`,
   materials: `
 Examples:
   bandbend materials list --kind support
@@ -128,17 +131,12 @@ function buildProgram(): Command {
       }
     }
     if (typeof opts['report'] === 'string') {
-      const figures = (['bandBending_eV', 'barrierHeight_eV', 'electronsPerParticle'] as const).map((metric) => ({
-        name: `heatmap-${metric}`,
-        title: metric,
-        spec: heatmapSpec(rows, { metricField: metric, title: metric, metals, supports }),
-      }));
-      const paths = await writeScreenReport(opts['report'], rows, figures, {
+      const paths = await writeScreenFolder(opts['report'], rows, {
         title: `Screen: ${metals.length} metals x ${supports.length} supports`,
-        force: opts['force'] === true,
+        metals,
+        supports,
         sortBy,
-        descending: true,
-        columns: SCREEN_COLUMNS as string[],
+        force: opts['force'] === true,
       });
       process.stderr.write(`report written: ${paths.htmlPath}\n`);
     }
@@ -168,13 +166,21 @@ function buildProgram(): Command {
     const areaText = opts['area'];
     const electrodeArea_m2 =
       typeof areaText === 'string' ? areaFromText(areaText) : undefined;
+    const reference = parseReferenceElectrode(String(opts['reference']), '--reference');
+    if (reference === 'RHE' && opts['ph'] === undefined) throw new InputError('--ph', 'the RHE scale needs the electrolyte pH', '0 to 14');
+    if (parsed.capacitanceColumn === 'capacitance_F' && areaText === undefined) {
+      throw new InputError('--area', `${file} gives capacitance_F: the electrode area is needed`, 'an area, e.g. "0.5 cm^2"');
+    }
+    const permittivityRelative = requireInRange('--permittivity', parseQuantity('--permittivity', opts['permittivity'] as string, 'dimensionless'), 1, 1e5, '');
+    const temperature_K = requireInRange('--temperature', parseQuantity('--temperature', opts['temperature'] as string, 'temperature'), 200, 500, 'K (electrochemical measurement)');
+    if (electrodeArea_m2 !== undefined) requireInRange('--area', electrodeArea_m2 * 1e4, 1e-6, 1e4, 'cm^2');
     const fit = fitMottSchottky({
       rows: parsed.rows,
       ...(electrodeArea_m2 !== undefined ? { electrodeArea_m2 } : {}),
-      permittivityRelative: parseQuantity('--permittivity', opts['permittivity'] as string, 'dimensionless'),
-      temperature_K: parseQuantity('--temperature', opts['temperature'] as string, 'temperature'),
-      reference: parseReferenceElectrode(String(opts['reference'])),
-      ...(opts['ph'] !== undefined ? { pH: parseQuantity('--ph', opts['ph'] as string, 'dimensionless') } : {}),
+      permittivityRelative,
+      temperature_K,
+      reference,
+      ...(opts['ph'] !== undefined ? { pH: requireInRange('--ph', parseQuantity('--ph', opts['ph'] as string, 'dimensionless'), -2, 16, '') } : {}),
     });
     if (typeof opts['plot'] === 'string') {
       const plotPath = opts['plot'];
@@ -197,6 +203,7 @@ function buildProgram(): Command {
     .description('the built-in scenario: writes a report with figures and CSV (what `npm start` runs)')
     .option('--out <DIR>', 'output folder', 'reports/demo')
     .option('--force', 'overwrite an existing demo folder')
+    .addHelpText('after', EXAMPLES.demo)
     .action(async (opts: Record<string, unknown>) => {
       const out = await runDemo({ outDir: String(opts['out']), force: opts['force'] === true });
       process.stdout.write(out.summary);
@@ -211,6 +218,7 @@ function buildProgram(): Command {
     .addOption(new Option('--kind <KIND>', 'only metals or only supports').choices(['metal', 'support']))
     .option('--json', 'print as JSON')
     .option('--materials <FILE...>', 'extra materials file(s)')
+    .addHelpText('after', EXAMPLES.materials)
     .action((opts: Record<string, unknown>) => {
       const lib = libraryFrom(opts['materials']);
       const kind = opts['kind'] as string | undefined;
@@ -241,13 +249,18 @@ function buildProgram(): Command {
     .description('all values of one metal or support with ranges and citations')
     .option('--json', 'print as JSON')
     .option('--materials <FILE...>', 'extra materials file(s)')
+    .addHelpText('after', EXAMPLES.materials)
     .action((name: string, opts: Record<string, unknown>) => {
       const lib = libraryFrom(opts['materials']);
       let record: Record<string, unknown>;
       try {
         record = findMetal(lib, name) as unknown as Record<string, unknown>;
       } catch {
-        record = findSupport(lib, name) as unknown as Record<string, unknown>;
+        try {
+          record = findSupport(lib, name) as unknown as Record<string, unknown>;
+        } catch {
+          throw new InputError('NAME', `no metal or support called "${name}"`, 'see `bandbend materials list`');
+        }
       }
       if (opts['json'] === true) {
         writeJson({ ...record, references: referencedBy(lib, record) });
@@ -338,7 +351,7 @@ function formatFit(fit: ReturnType<typeof fitMottSchottky>): string {
   const lines = [
     `Mott-Schottky fit (${fit.points} points, R^2 = ${fit.rSquared.toFixed(5)})`,
     `  carrier type              ${fit.carrierType}-type${fit.slopeSignificant ? '' : ' (slope not significant: type uncertain)'}`,
-    `  ${fit.carrierType === 'n' ? 'donor' : 'acceptor'} density            ${fit.dopantDensity_cm3.toExponential(3)} +/- ${fit.dopantDensityStdErr_cm3.toExponential(2)} cm^-3`,
+    `  ${(fit.carrierType === 'n' ? 'donor density' : 'acceptor density').padEnd(26)}${fit.dopantDensity_cm3.toExponential(3)} +/- ${fit.dopantDensityStdErr_cm3.toExponential(2)} cm^-3`,
     `  flat-band potential       ${fit.flatBandPotential_V.toFixed(4)} +/- ${fit.flatBandStdErr_V.toFixed(4)} V vs ${fit.reference}`,
     `  flat-band potential (SHE) ${fit.flatBandPotential_V_SHE.toFixed(4)} V`,
     `  Fermi level vs vacuum     ${fit.fermiLevelVsVacuum_eV.toFixed(3)} eV (absolute SHE 4.44 V, Trasatti 1986)`,
@@ -356,15 +369,13 @@ function areaFromText(text: string): number {
   return Number(m[1]) * factor[m[2]!]!;
 }
 
-export function readInputFile(path: string, field: string, maxBytes = 5 * 1024 * 1024): string {
+export function readInputFile(path: string, field: string, maxBytes = 5_000_000): string {
   if (!existsSync(path)) throw new InputError(field, `file not found: ${path}`);
   const stats = statSync(path);
   if (!stats.isFile()) throw new InputError(field, `not a file: ${path}`);
   if (stats.size > maxBytes) throw new InputError(field, `${path} is ${(stats.size / 1e6).toFixed(1)} MB`, `at most ${maxBytes / 1e6} MB`);
   return readFileSync(path, 'utf8');
 }
-
-export { mkdirSync, join };
 
 /** Run the CLI; returns the exit code. */
 export async function main(argv: string[]): Promise<number> {

@@ -30,7 +30,12 @@ export function hemisphere(radius_m: number): CrossSection {
     interfaceArea_m2: 2 * Math.PI * a * a,
     // 2 pi r_a r_b makes the discrete flux exact for the spherical harmonic solution psi ~ 1/r
     faceArea: (xa, xb) => 2 * Math.PI * (a + xa) * (a + xb),
-    volume: (xa, xb) => ((2 * Math.PI) / 3) * ((a + xb) ** 3 - (a + xa) ** 3),
+    // (2 pi / 3)(r_b^3 - r_a^3) in factored form: no cancellation for thin shells, and no pow()
+    volume: (xa, xb) => {
+      const ra = a + xa;
+      const rb = a + xb;
+      return ((2 * Math.PI) / 3) * (rb - ra) * (rb * rb + ra * rb + ra * ra);
+    },
     depthHoldingVolume: (v) => Math.cbrt(a ** 3 + (3 * v) / (2 * Math.PI)) - a,
   };
 }

@@ -33,6 +33,9 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
   const magnitude = Math.abs(uSurface);
   const charge = new Float64Array(2);
   model.netCharge(xiBulk, charge);
+  // the bulk is neutral only to the bisection tolerance (~1e-13 of N_D); subtracting that residue keeps
+  // N(u) - N(0) of the sign of u, so G(u) > 0 even for bendings of a few meV
+  const bulkResidue = charge[0]!;
   const bulkSlope = Math.abs(charge[1]!);
   const bulkScreening_m = bulkSlope > 0 ? 1 / Math.sqrt(beta * bulkSlope) : Infinity;
   model.netCharge(xiBulk - uSurface, charge);
@@ -58,7 +61,7 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
     uValues[k] = u;
     model.netCharge(xiBulk - u, charge);
     // N has the sign of u (dN/du > 0, N(0) = 0), so G grows monotonically; trapezoid in u
-    const currentCharge = k === 0 ? 0 : charge[0]!;
+    const currentCharge = k === 0 ? 0 : charge[0]! - bulkResidue;
     // local (generalised) Debye length: resolves carrier layers and defect-ionisation fronts
     debyeLengths[k] = charge[1]! !== 0 ? 1 / Math.sqrt(beta * Math.abs(charge[1]!)) : Infinity;
     if (k > 0) gValues[k] = gValues[k - 1]! + 0.5 * (previousCharge + currentCharge) * (u - uValues[k - 1]!);

@@ -192,8 +192,12 @@ function newtonOnMesh(
   const n = x.length;
   const last = n - 1;
   // geometry factors: face coefficient A/h between node i and i+1, control volume of node i
-  const faceCoefficient = new Float64Array(n);
-  const volume = new Float64Array(n);
+  // one allocation for every work array of this solve (typed arrays are costly to create one by one)
+  const workspace = new Float64Array(16 * n);
+  let slot = 0;
+  const take = (): Float64Array => workspace.subarray(n * slot++, n * slot);
+  const faceCoefficient = take();
+  const volume = take();
   for (let i = 0; i < last; i++) {
     const h = x[i + 1]! - x[i]!;
     faceCoefficient[i] = geometry.faceArea(x[i]!, x[i + 1]!) / h;
@@ -202,21 +206,21 @@ function newtonOnMesh(
     volume[i + 1] += geometry.volume(mid, x[i + 1]!);
   }
   initial[0] = uSurface;
-  let lower: Float64Array = new Float64Array(n);
-  let diag: Float64Array = new Float64Array(n);
-  let upper: Float64Array = new Float64Array(n);
-  let residual: Float64Array = new Float64Array(n);
-  let trialLower: Float64Array = new Float64Array(n);
-  let trialDiag: Float64Array = new Float64Array(n);
-  let trialUpper: Float64Array = new Float64Array(n);
-  const step = new Float64Array(n);
-  const work = new Float64Array(n);
-  const work2 = new Float64Array(n);
-  const simplified = new Float64Array(n);
-  let trial: Float64Array = new Float64Array(n);
-  let trialResidual: Float64Array = new Float64Array(n);
+  let lower: Float64Array = take();
+  let diag: Float64Array = take();
+  let upper: Float64Array = take();
+  let residual: Float64Array = take();
+  let trialLower: Float64Array = take();
+  let trialDiag: Float64Array = take();
+  let trialUpper: Float64Array = take();
+  const step = take();
+  const work = take();
+  const work2 = take();
+  const simplified = take();
+  let trial: Float64Array = take();
+  let trialResidual: Float64Array = take();
   const charge = new Float64Array(2);
-  const betaVolume = new Float64Array(n);
+  const betaVolume = take();
   for (let i = 0; i < n; i++) betaVolume[i] = beta * volume[i]!;
 
   /** residual R_i = flux out - flux in - beta V_i N_i (and the Jacobian when asked); returns the scaled norm */
@@ -256,15 +260,7 @@ function newtonOnMesh(
     for (let i = 1; i < n; i++) residual[i] = -residual[i]!;
     lower[1] = 0;
     upper[last] = 0;
-    const ok = solveTridiagonal(
-      n - 1,
-      lower.subarray(1),
-      diag.subarray(1),
-      upper.subarray(1),
-      residual.subarray(1),
-      step.subarray(1),
-      work.subarray(1),
-    );
+    const ok = solveTridiagonal(n - 1, lower, diag, upper, residual, step, work, 1);
     if (!ok) throw new ConvergenceError('singular Jacobian', iterations);
     let maxStep = 0;
     for (let i = 1; i < n; i++) maxStep = Math.max(maxStep, Math.abs(step[i]!));
@@ -291,7 +287,7 @@ function newtonOnMesh(
         for (let i = 1; i < n; i++) work2[i] = -trialResidual[i]!;
         lower[1] = 0;
         upper[last] = 0;
-        solveTridiagonal(n - 1, lower.subarray(1), diag.subarray(1), upper.subarray(1), work2.subarray(1), simplified.subarray(1), work.subarray(1));
+        solveTridiagonal(n - 1, lower, diag, upper, work2, simplified, work, 1);
         let simplifiedNorm = 0;
         for (let i = 1; i < n; i++) simplifiedNorm += simplified[i]! * simplified[i]!;
         simplifiedNorm = Math.sqrt(simplifiedNorm / (n - 1));

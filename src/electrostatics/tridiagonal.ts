@@ -2,8 +2,9 @@
 // Stable without pivoting for the diagonally dominant M-matrices the Poisson Jacobian produces.
 
 /**
- * Solve lower[i] x[i-1] + diag[i] x[i] + upper[i] x[i+1] = rhs[i] for i = 0..n-1 (lower[0], upper[n-1] unused).
- * The solution is written to `out`; `work` must hold n values. Returns false when a pivot vanishes.
+ * Solve lower[i] x[i-1] + diag[i] x[i] + upper[i] x[i+1] = rhs[i] for i = offset..offset+n-1 (lower[offset] and
+ * upper[offset+n-1] unused). The solution is written to `out` at the same indices; `work` must be as long as
+ * the others. Returns false when a pivot vanishes.
  */
 export function solveTridiagonal(
   n: number,
@@ -13,16 +14,19 @@ export function solveTridiagonal(
   rhs: Float64Array,
   out: Float64Array,
   work: Float64Array,
+  offset = 0,
 ): boolean {
-  let pivot = diag[0]!;
+  const first = offset;
+  const end = offset + n;
+  let pivot = diag[first]!;
   if (pivot === 0 || !Number.isFinite(pivot)) return false;
-  out[0] = rhs[0]! / pivot;
-  for (let i = 1; i < n; i++) {
+  out[first] = rhs[first]! / pivot;
+  for (let i = first + 1; i < end; i++) {
     work[i] = upper[i - 1]! / pivot;
     pivot = diag[i]! - lower[i]! * work[i]!;
     if (pivot === 0 || !Number.isFinite(pivot)) return false;
     out[i] = (rhs[i]! - lower[i]! * out[i - 1]!) / pivot;
   }
-  for (let i = n - 2; i >= 0; i--) out[i] = out[i]! - work[i + 1]! * out[i + 1]!;
+  for (let i = end - 2; i >= first; i--) out[i] = out[i]! - work[i + 1]! * out[i + 1]!;
   return true;
 }

@@ -1,7 +1,7 @@
 // Inputs of one contact: user options (CLI flags or library call) + materials library -> resolved SI values with provenance.
 import { InputError, requireInRange } from '../errors.js';
 import type { InputProvenance, MaterialsLibrary, MetalRecord, PropertyValue, SupportRecord } from '../materials/types.js';
-import { findMetal, findSupport, provenanceOf, loadLibrary } from '../materials/load.js';
+import { findMetal, findSupport, provenanceOf, loadLibrary, formatCitation } from '../materials/load.js';
 import { estimateElectronAffinity } from '../materials/estimate.js';
 import { parseQuantity, type QuantityInput } from './units.js';
 import {
@@ -151,6 +151,24 @@ interface Collector {
   inputs: InputProvenance[];
 }
 
+/** CLI flag of each provenance field, so parse errors name what the user typed. */
+const FLAG_OF: Readonly<Record<string, string>> = {
+  'metal work function': '--work-function',
+  'band gap': '--band-gap',
+  'electron affinity': '--electron-affinity',
+  'static permittivity': '--permittivity',
+  'optical permittivity': '--optical-permittivity',
+  'electron mass': '--electron-mass',
+  'hole mass': '--hole-mass',
+  'donor density': '--donors',
+  'acceptor density': '--acceptors',
+  'charge-neutrality level': '--neutral-level',
+  'pinning factor': '--pinning-factor',
+  'reduction enthalpy': '--reduction-enthalpy',
+  'reduction entropy': '--reduction-entropy',
+  'oxygen site density': '--oxygen-sites',
+};
+
 /** A value the user gave, or the library's, or none; records its provenance. */
 function pick(
   c: Collector,
@@ -163,7 +181,7 @@ function pick(
   fromWorking: (v: number) => number = (v) => v,
 ): number | undefined {
   if (user !== undefined && user !== null && user !== '') {
-    const v = parseQuantity(field, user, kind);
+    const v = parseQuantity(FLAG_OF[field] ?? field, user, kind);
     c.inputs.push({ field, value: fromWorking(v), unit, origin: 'user' });
     return v;
   }
@@ -443,7 +461,7 @@ function massOrDefault(c: Collector, field: string, user: QuantityInput | undefi
     c.inputs.push({ field, value: 1, unit: 'm_e', origin: 'default', note: 'not given: free-electron mass assumed' });
     return 1;
   }
-  requireInRange(`--${field.replace(' ', '-')}`, m, LIMITS.mass_me[0], LIMITS.mass_me[1], 'm_e');
+  requireInRange(FLAG_OF[field] ?? field, m, LIMITS.mass_me[0], LIMITS.mass_me[1], 'm_e');
   return m;
 }
 
@@ -499,6 +517,7 @@ function resolvePretreatment(
       unit: 'bar',
       origin: 'derived',
       source: 'chase1998',
+      ...(c.lib.references.has('chase1998') ? { citation: formatCitation(c.lib.references.get('chase1998')!) } : {}),
       note: `water-formation equilibrium, Delta_f G(H2O,g) = ${po2.waterGibbsFormation_kJ_mol.toFixed(2)} kJ/mol at ${equilibrationTemperature_K} K`,
     });
     cautions.push(...HYDROGEN_CAUTIONS);

@@ -69,7 +69,7 @@ export function parseQuantity(field: string, input: QuantityInput | undefined | 
   if (typeof input !== 'string') throw new InputError(field, `expected a number or a string, got ${typeof input}`, spec.label);
   const text = input.trim();
   const bare = Number(text);
-  if (text !== '' && !Number.isNaN(bare) && /^[+-]?(\d|\.\d|Infinity)/.test(text)) {
+  if (text !== '' && !Number.isNaN(bare) && /^[+-]?(\d|\.\d|Infinity|NaN)/.test(text)) {
     if (!Number.isFinite(bare)) throw new InputError(field, `not a finite number ("${text}")`, spec.label);
     return bare * spec.bareFactor;
   }
