@@ -449,6 +449,8 @@ function checkUnit(label: string, path: (string | number)[], field: string, unit
   }
   if (spec.kind !== 'quantity') fail(label, path, `"${field}" is a categorical axis: it has no unit`);
   if (unit === '') fail(label, path, `expected a unit such as "${defaultUnitOf(spec.quantity)}"`);
+  // the default unit needs no check (and no units library at start-up)
+  if (unit === defaultUnitOf(spec.quantity)) return;
   try {
     parseQuantity(field, `1 ${unit}`, spec.quantity);
   } catch (err) {
