@@ -62,24 +62,30 @@ for (let i = 0; i < TABLE_SIZE; i++) {
   tableMinus5Half[i] = d;
 }
 
-/** Cubic Hermite interpolation of a tabulated function with tabulated derivative. */
-function hermite(values: Float64Array, derivatives: Float64Array, eta: number): number {
+/** Cubic Hermite basis at eta: table index, and weights for f_i, h f'_i, f_i+1, h f'_i+1 (h folded in). */
+const hermiteWeights = new Float64Array(4);
+function hermiteBasis(eta: number): number {
   const position = (eta - TABLE_MIN) / TABLE_STEP;
   let i = Math.floor(position);
   if (i >= TABLE_SIZE - 1) i = TABLE_SIZE - 2;
   const t = position - i;
   const t2 = t * t;
   const t3 = t2 * t;
-  const h00 = 2 * t3 - 3 * t2 + 1;
-  const h10 = t3 - 2 * t2 + t;
-  const h01 = -2 * t3 + 3 * t2;
-  const h11 = t3 - t2;
-  return (
-    h00 * values[i]! +
-    h10 * TABLE_STEP * derivatives[i]! +
-    h01 * values[i + 1]! +
-    h11 * TABLE_STEP * derivatives[i + 1]!
-  );
+  hermiteWeights[0] = 2 * t3 - 3 * t2 + 1;
+  hermiteWeights[1] = (t3 - 2 * t2 + t) * TABLE_STEP;
+  hermiteWeights[2] = -2 * t3 + 3 * t2;
+  hermiteWeights[3] = (t3 - t2) * TABLE_STEP;
+  return i;
+}
+
+/** Cubic Hermite interpolation of a tabulated function with tabulated derivative, at the basis just computed. */
+function hermiteAt(i: number, values: Float64Array, derivatives: Float64Array): number {
+  const w = hermiteWeights;
+  return w[0]! * values[i]! + w[1]! * derivatives[i]! + w[2]! * values[i + 1]! + w[3]! * derivatives[i + 1]!;
+}
+
+function hermite(values: Float64Array, derivatives: Float64Array, eta: number): number {
+  return hermiteAt(hermiteBasis(eta), values, derivatives);
 }
 
 const SERIES_TERMS = 40;
@@ -193,18 +199,9 @@ export function fermiDiracPair(eta: number, out: Float64Array, offset: number): 
     out[offset + 1] = sommerfeld(eta, -0.5, GAMMA_3_2);
     return;
   }
-  const position = (eta - TABLE_MIN) / TABLE_STEP;
-  let i = Math.floor(position);
-  if (i >= TABLE_SIZE - 1) i = TABLE_SIZE - 2;
-  const t = position - i;
-  const t2 = t * t;
-  const t3 = t2 * t;
-  const h00 = 2 * t3 - 3 * t2 + 1;
-  const h10 = (t3 - 2 * t2 + t) * TABLE_STEP;
-  const h01 = -2 * t3 + 3 * t2;
-  const h11 = (t3 - t2) * TABLE_STEP;
-  out[offset] = h00 * tableHalf[i]! + h10 * tableMinusHalf[i]! + h01 * tableHalf[i + 1]! + h11 * tableMinusHalf[i + 1]!;
-  out[offset + 1] = h00 * tableMinusHalf[i]! + h10 * tableMinus3Half[i]! + h01 * tableMinusHalf[i + 1]! + h11 * tableMinus3Half[i + 1]!;
+  const i = hermiteBasis(eta);
+  out[offset] = hermiteAt(i, tableHalf, tableMinusHalf);
+  out[offset + 1] = hermiteAt(i, tableMinusHalf, tableMinus3Half);
 }
 
 /** exp(eta) twice, the Boltzmann counterpart of fermiDiracPair. */

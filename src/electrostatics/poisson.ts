@@ -82,6 +82,7 @@ function solvePoissonOnce(problem: PoissonProblem): PoissonSolution {
   const maxIterations = problem.maxIterations ?? 200;
 
   const firstIntegral = planarFirstIntegral(model, xiBulk, uSurface, beta);
+  const system: DiscreteSystem = { model, xiBulk, beta, geometry };
   const mesh = buildMesh({
     firstIntegral,
     thickness_m: problem.thickness_m,
@@ -93,10 +94,10 @@ function solvePoissonOnce(problem: PoissonProblem): PoissonSolution {
   for (let i = 0; i < mesh.x.length; i++) coarseGuess[i] = firstIntegral.guess(mesh.x[i]!);
   let coarse: MeshSolution;
   try {
-    coarse = newtonOnMesh(model, xiBulk, uSurface, beta, geometry, mesh.x, coarseGuess, maxIterations);
+    coarse = newtonOnMesh(system, uSurface, mesh.x, coarseGuess, maxIterations);
   } catch (error) {
     if (!(error instanceof ConvergenceError)) throw error;
-    coarse = continuation(model, xiBulk, uSurface, beta, geometry, mesh.x, maxIterations, error);
+    coarse = continuation(system, uSurface, mesh.x, maxIterations, error);
   }
   // Richardson extrapolation on the bisected mesh: the scheme is second order, so Q + (Q_f - Q_c)/3 is fourth order
   const fineX = bisectMesh(mesh.x);
@@ -106,7 +107,7 @@ function solvePoissonOnce(problem: PoissonProblem): PoissonSolution {
     fineGuess[2 * i + 1] = 0.5 * (coarse.u[i]! + coarse.u[i + 1]!);
   }
   fineGuess[fineX.length - 1] = coarse.u[coarse.u.length - 1]!;
-  const fine = newtonOnMesh(model, xiBulk, uSurface, beta, geometry, fineX, fineGuess, maxIterations);
+  const fine = newtonOnMesh(system, uSurface, fineX, fineGuess, maxIterations);
   const correction = (fine.chargeSum - coarse.chargeSum) / 3;
   const chargeSum = fine.chargeSum + correction;
   const chargeErrorEstimate = chargeSum !== 0 ? Math.abs(correction / chargeSum) : 0;
@@ -137,11 +138,8 @@ function solvePoissonOnce(problem: PoissonProblem): PoissonSolution {
  * adaptive steps, each solved from the previous solution (homotopy in the boundary value).
  */
 function continuation(
-  model: ChargeModel,
-  xiBulk: number,
+  system: DiscreteSystem,
   uSurface: number,
-  beta: number,
-  geometry: CrossSection,
   x: Float64Array,
   maxIterations: number,
   original: ConvergenceError,
@@ -154,7 +152,7 @@ function continuation(
   while (lambda < 1) {
     const next = Math.min(1, lambda + delta);
     try {
-      const solved = newtonOnMesh(model, xiBulk, next * uSurface, beta, geometry, x, Float64Array.from(current), Math.min(maxIterations, 40));
+      const solved = newtonOnMesh(system, next * uSurface, x, Float64Array.from(current), Math.min(maxIterations, 40));
       iterations += solved.iterations;
       current = solved.u;
       last = solved;
@@ -170,6 +168,14 @@ function continuation(
   return { ...last!, iterations };
 }
 
+/** What every mesh solve of one problem shares. */
+interface DiscreteSystem {
+  model: ChargeModel;
+  xiBulk: number;
+  beta: number;
+  geometry: CrossSection;
+}
+
 interface MeshSolution {
   u: Float64Array;
   netCharge: Float64Array;
@@ -179,16 +185,8 @@ interface MeshSolution {
 }
 
 /** Damped Newton for the finite-volume system on one mesh; u[0] is the Dirichlet value. */
-function newtonOnMesh(
-  model: ChargeModel,
-  xiBulk: number,
-  uSurface: number,
-  beta: number,
-  geometry: CrossSection,
-  x: Float64Array,
-  initial: Float64Array,
-  maxIterations: number,
-): MeshSolution {
+function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array, initial: Float64Array, maxIterations: number): MeshSolution {
+  const { model, xiBulk, beta, geometry } = system;
   const n = x.length;
   const last = n - 1;
   // geometry factors: face coefficient A/h between node i and i+1, control volume of node i
