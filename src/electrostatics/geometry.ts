@@ -81,7 +81,7 @@ export function crossSectionFromFunction(kind: string, area: (x_m: number) => nu
       let high = 1e-9;
       while (volume(0, high) < v && high < 1) high *= 2;
       let low = 0;
-      for (let i = 0; i < 100; i++) {
+      for (let i = 0; i < 60; i++) {
         const mid = 0.5 * (low + high);
         if (volume(0, mid) < v) low = mid;
         else high = mid;
@@ -93,17 +93,19 @@ export function crossSectionFromFunction(kind: string, area: (x_m: number) => nu
 
 /**
  * Flux tube of one particle in an array of areal density N: the hemisphere near the particle joined smoothly
- * to the planar share 1/N deep in the support, A = [(2 pi r^2)^-m + N^m]^(-1/m) with m = 2.
+ * to the planar share 1/N deep in the support, A = [(2 pi r^2)^-2 + N^2]^(-1/2).
  * Why: it recovers the isolated hemisphere when 1/N >> 2 pi r^2 over the whole layer, and the planar layer
  * shared among particles when the layer is much deeper than the spacing. It neglects the lateral structure of
  * the field between particles (a real cell is square or hexagonal, not axisymmetric).
  */
 export function particleArray(radius_m: number, particleDensity_m2: number): CrossSection {
-  const m = 2;
-  const shareArea = 1 / particleDensity_m2;
+  const n = particleDensity_m2;
+  // m = 2 written out: A = A_h / sqrt(1 + (A_h N)^2), no pow() in the inner loops
   const area = (x: number): number => {
-    const hemisphereArea = 2 * Math.PI * (radius_m + x) ** 2;
-    return Math.pow(Math.pow(hemisphereArea, -m) + Math.pow(shareArea, -m), -1 / m);
+    const r = radius_m + x;
+    const hemisphereArea = 2 * Math.PI * r * r;
+    const ratio = hemisphereArea * n;
+    return hemisphereArea / Math.sqrt(1 + ratio * ratio);
   };
   return crossSectionFromFunction('array', area);
 }
