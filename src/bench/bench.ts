@@ -98,17 +98,6 @@ function timeUs(fn: () => unknown, runs: number, warmup: number): Stats {
   return statsOf(samples);
 }
 
-/** Time an async fn `runs` times (after `warmup` untimed runs); seconds per run. */
-async function timeSeconds(fn: () => Promise<unknown> | unknown, runs: number, warmup: number): Promise<{ stats: Stats; samples: number[] }> {
-  for (let i = 0; i < warmup; i++) await fn();
-  const samples: number[] = [];
-  for (let i = 0; i < runs; i++) {
-    const t0 = performance.now();
-    await fn();
-    samples.push((performance.now() - t0) / 1000);
-  }
-  return { stats: statsOf(samples), samples };
-}
 
 // ---------------------------------------------------------------------------------------------
 // table printing

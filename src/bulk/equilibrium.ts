@@ -113,7 +113,6 @@ export function makeChargeModel(support: SupportElectronic): ChargeModel {
   const acceptorHeight = support.acceptors.level_eV === undefined ? undefined : support.acceptors.level_eV / kT_eV;
   const lnDonorDegeneracy = Math.log(DONOR_DEGENERACY);
   const lnAcceptorDegeneracy = Math.log(ACCEPTOR_DEGENERACY);
-  const fullDonorCharge = doubleDonor ? 2 : 1;
 
   const scratch = new Float64Array(2);
   const carriers = new Float64Array(4);

@@ -6,7 +6,8 @@ import { InputError, ConvergenceError, requireInRange } from '../errors.js';
 import { solveContact } from '../contact.js';
 import { addContactFlags, contactOptionsFrom } from './options.js';
 import { formatContactSummary } from '../output/summary.js';
-import { writeContactReport } from '../output/report.js';
+import { writeContactReport, prepareReportDir } from '../output/report.js';
+import { sweepParticleDensity, densitySweepSection } from '../densitySweep.js';
 import { mottSchottkyFitSpec } from '../output/figures.js';
 import { renderSvg } from '../output/render.js';
 import { loadLibrary, findMetal, findSupport, formatCitation } from '../materials/load.js';
@@ -82,11 +83,18 @@ function buildProgram(): Command {
   addContactFlags(contact);
   contact.addHelpText('after', EXAMPLES.contact);
   contact.action(async (opts: Record<string, unknown>) => {
-    const result = solveContact(contactOptionsFrom(opts));
+    const options = contactOptionsFrom(opts);
+    const result = solveContact(options);
     if (typeof opts['report'] === 'string') {
-      const paths = await writeContactReport(opts['report'], result, {
+      const dir = opts['report'];
+      await prepareReportDir(dir, opts['force'] === true);
+      // particle arrays: how the charge per particle depends on loading belongs in the write-up
+      const extraSections =
+        result.geometry === 'array' ? [await densitySweepSection(dir, sweepParticleDensity(options), `${result.metal} on ${result.support}`)] : [];
+      const paths = await writeContactReport(dir, result, {
         title: `${result.metal} on ${result.support}`,
-        force: opts['force'] === true,
+        force: true,
+        extraSections,
       });
       if (opts['json'] !== true) process.stderr.write(`report written: ${paths.htmlPath}\n`);
     }

@@ -250,7 +250,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
 
   let iterations = 0;
   let u: Float64Array = initial;
-  let norm = evaluate(u, residual, lower, diag, upper);
+  evaluate(u, residual, lower, diag, upper);
   let converged = false;
   const stepCap = Math.max(10, 0.25 * Math.abs(uSurface));
   while (iterations < maxIterations) {
@@ -309,7 +309,6 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
     [lower, trialLower] = [trialLower, lower];
     [diag, trialDiag] = [trialDiag, diag];
     [upper, trialUpper] = [trialUpper, upper];
-    norm = trialNorm;
   }
   if (!converged) throw new ConvergenceError(`no convergence within ${maxIterations} Newton iterations`, iterations);
 
