@@ -396,7 +396,8 @@ export async function main(argv: string[]): Promise<number> {
   for (const command of program.commands) for (const sub of command.commands) sub.exitOverride();
   try {
     await program.parseAsync(argv, { from: 'user' });
-    return 0;
+    // a command may set a non-zero code without failing (an interrupted study exits 130, like a shell)
+    return typeof process.exitCode === 'number' ? process.exitCode : 0;
   } catch (error) {
     if (error instanceof CommanderError) {
       // help and version print and exit 0; usage errors were already printed by commander
