@@ -243,7 +243,7 @@ function assemble(
       iterations: solution.iterations,
       meshPoints: solution.x_m.length,
       domainLength_nm: solution.domain_m * 1e9,
-      chargeBalanceResidual: solution.chargeErrorEstimate,
+      chargeErrorEstimate: solution.chargeErrorEstimate,
     },
     warnings,
     cautions,

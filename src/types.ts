@@ -31,8 +31,11 @@ export interface SolverInfo {
   iterations: number;
   meshPoints: number;
   domainLength_nm: number;
-  /** relative change of total charge when the mesh is refined would go here; we report the discrete charge balance residual */
-  chargeBalanceResidual: number;
+  /**
+   * Richardson correction relative to the charge, |Q_fine - Q_coarse| / 3 / |Q|: an upper estimate of the
+   * error of the unextrapolated charge (the reported, extrapolated charge is typically 100x better)
+   */
+  chargeErrorEstimate: number;
 }
 
 export interface ParticleInfo {

@@ -147,7 +147,7 @@ function depletionFixture(over: Partial<FixtureParams> = {}): ContactResult {
       chargeDensity_C_per_m3: rho,
       field_V_per_m: field,
     },
-    solver: { converged: true, iterations: 12, meshPoints: x_nm.length, domainLength_nm: x_nm[x_nm.length - 1]!, chargeBalanceResidual: 1e-9 },
+    solver: { converged: true, iterations: 12, meshPoints: x_nm.length, domainLength_nm: x_nm[x_nm.length - 1]!, chargeErrorEstimate: 1e-9 },
     warnings: [{ code: 'synthetic', message: 'synthetic fixture from the depletion approximation' }],
     cautions: ['Test caution: oxygen vacancy density assumed.'],
     inputs: [

@@ -256,7 +256,7 @@ export function contactResultRows(result: ContactResult): ResultRow[] {
   const s = result.solver;
   add('solver', 'converged / iterations', `${s.converged ? 'yes' : 'NO'} / ${s.iterations}`);
   add('solver', 'mesh points / domain', `${s.meshPoints} / ${formatQuantity(s.domainLength_nm, 'nm')}`);
-  add('solver', 'charge balance residual', formatNumber(s.chargeBalanceResidual));
+  add('solver', 'charge error estimate (Richardson, relative)', formatNumber(s.chargeErrorEstimate));
   return rows;
 }
 

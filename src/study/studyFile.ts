@@ -173,7 +173,7 @@ export const OUTPUT_PATHS = [
   'solver.iterations',
   'solver.meshPoints',
   'solver.domainLength_nm',
-  'solver.chargeBalanceResidual',
+  'solver.chargeErrorEstimate',
   // only with base.uncertainty > 0 (null otherwise)
   'uncertainty.samples',
   'uncertainty.seed',
