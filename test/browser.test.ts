@@ -1,3 +1,4 @@
+/// <reference lib="dom" />
 // Browser check of the demo report: `bandbend demo --out <tmp>` (compiled CLI), then both report pages are opened in
 // headless Chromium through playwright-core. Every SVG figure must be laid out with a non-zero size, the console must
 // show no errors and no request may fail (the report is meant to be self-contained and offline).

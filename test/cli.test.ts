@@ -15,6 +15,7 @@ import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { parseCsv } from './helpers.js';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
 
@@ -97,33 +98,6 @@ function parseJson<T = Record<string, unknown>>(r: Run): T {
   return JSON.parse(r.stdout) as T;
 }
 
-/** Minimal RFC 4180 reader (quoted cells with "" escapes; no embedded newlines are written by bandbend). */
-function parseCsv(text: string): string[][] {
-  return text
-    .split(/\r?\n/)
-    .filter((l) => l !== '')
-    .map((line) => {
-      const cells: string[] = [];
-      let cell = '';
-      let quoted = false;
-      for (let i = 0; i < line.length; i++) {
-        const ch = line[i]!;
-        if (quoted) {
-          if (ch === '"' && line[i + 1] === '"') {
-            cell += '"';
-            i++;
-          } else if (ch === '"') quoted = false;
-          else cell += ch;
-        } else if (ch === '"') quoted = true;
-        else if (ch === ',') {
-          cells.push(cell);
-          cell = '';
-        } else cell += ch;
-      }
-      cells.push(cell);
-      return cells;
-    });
-}
 
 /** Every file under dir -> sha256 of its content and its mtime, to prove a refused command left them alone. */
 function snapshot(dir: string): Record<string, string> {

@@ -45,3 +45,35 @@ export function boltzmannPlanarCharge(n0_m3: number, p0_m3: number, u: number, r
   const integral = p0_m3 * Math.expm1(u) - p0_m3 * u + n0_m3 * Math.expm1(-u) + n0_m3 * u;
   return Math.sign(u) * Math.sqrt(2 * relativePermittivity * CODATA2018.eps0 * CODATA2018.k * temperature_K * integral);
 }
+
+/** Minimal RFC 4180 reader for one line: quoted cells with "" escapes (bandbend never writes embedded newlines). */
+export function parseCsvLine(line: string): string[] {
+  const cells: string[] = [];
+  let cell = '';
+  let quoted = false;
+  for (let i = 0; i < line.length; i++) {
+    const ch = line[i]!;
+    if (quoted) {
+      if (ch === '"' && line[i + 1] === '"') {
+        cell += '"';
+        i++;
+      } else if (ch === '"') quoted = false;
+      else cell += ch;
+    } else if (ch === '"') quoted = true;
+    else if (ch === ',') {
+      cells.push(cell);
+      cell = '';
+    } else cell += ch;
+  }
+  if (quoted) throw new Error(`unterminated quote in ${line}`);
+  cells.push(cell);
+  return cells;
+}
+
+/** All non-empty lines of a CSV text, parsed. */
+export function parseCsv(text: string): string[][] {
+  return text
+    .split(/\r?\n/)
+    .filter((l) => l !== '')
+    .map(parseCsvLine);
+}

@@ -5,6 +5,7 @@ import { mkdtempSync, readFileSync, writeFileSync, existsSync, rmSync } from 'no
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parse } from 'yaml';
+import { parseCsvLine } from './helpers.js';
 
 const STUDY = `
 name: interrupt-check
@@ -40,10 +41,10 @@ describe('interrupting a study', () => {
       expect(code).toBe(130);
       expect(stderr).toMatch(/interrupted/);
       const rows = lines(csv);
-      const header = rows[0]!.split(',');
+      const header = parseCsvLine(rows[0]!);
       expect(rows.length).toBeGreaterThan(100);
       expect(rows.length).toBeLessThan(40001);
-      for (const row of rows) expect(row.split(',').length).toBe(header.length);
+      for (const row of rows) expect(parseCsvLine(row).length).toBe(header.length);
       for (const line of lines(join(out, 'results.jsonl'))) expect(() => JSON.parse(line)).not.toThrow();
     } finally {
       rmSync(dir, { recursive: true, force: true });

@@ -100,6 +100,9 @@ function depletionFixture(over: Partial<FixtureParams> = {}): ContactResult {
     imageForceLowering_eV: 0.031,
     electronsPerParticle: (spaceCharge * area_m2) / Q,
     donorDensity_cm3: p.donors_cm3,
+    pinningFactor: null,
+    chargeDepth90_nm: 0.9 * w_nm, // uniform depletion charge: 90% lies within 0.9 W
+    supportFullyDepleted: false,
     acceptorDensity_cm3: 0,
     bulk: {
       electronDensity_cm3: n[n.length - 1]!,
@@ -430,6 +433,7 @@ describe('contact report', () => {
     r.exchange = { ...r.exchange!, exchangeCurrentDensity_A_per_cm2: 0, exchangeCurrentLog10_A_per_cm2: -412.3, equilibrationTime_s: null, equilibrationTimeLog10_s: 402.5, slow: true };
     r.uncertainty = {
       samples: 200,
+      sampledInputs: ['workFunction_eV'],
       seed: 7,
       failed: 1,
       directionProbability: { 'support-to-metal': 0.9, 'metal-to-support': 0.08, none: 0.02 },

@@ -22,6 +22,7 @@ import { axisValues, expandSweep, linearSpace, logSpace } from '../src/study/swe
 import { createProgress, formatProgress } from '../src/study/progress.js';
 import * as built from '../dist/study/runner.js';
 import * as builtFile from '../dist/study/studyFile.js';
+import { parseCsvLine } from './helpers.js';
 
 const emptyLibrary = (): MaterialsLibrary => ({ metals: new Map(), supports: new Map(), references: new Map() });
 
@@ -49,29 +50,6 @@ function study(raw: Record<string, unknown>): Study {
   return parseStudy({ name: 'test', ...raw }, { label: 'study.yaml' });
 }
 
-/** Minimal RFC 4180 parser for one line (no embedded newlines: the runner never writes them). */
-function parseCsvLine(line: string): string[] {
-  const cells: string[] = [];
-  let cell = '';
-  let quoted = false;
-  for (let i = 0; i < line.length; i++) {
-    const ch = line[i]!;
-    if (quoted) {
-      if (ch === '"' && line[i + 1] === '"') {
-        cell += '"';
-        i++;
-      } else if (ch === '"') quoted = false;
-      else cell += ch;
-    } else if (ch === '"') quoted = true;
-    else if (ch === ',') {
-      cells.push(cell);
-      cell = '';
-    } else cell += ch;
-  }
-  if (quoted) throw new Error(`unterminated quote in ${line}`);
-  cells.push(cell);
-  return cells;
-}
 
 function readCsv(path: string): { header: string[]; rows: string[][] } {
   const text = readFileSync(path, 'utf8');
