@@ -2,10 +2,9 @@
 // oxide supports and writes up its lead sample HX-14 (Pt on H2-reduced ceria). Team and sample names are fictional.
 import { existsSync, mkdirSync, readdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { stringify } from 'csv-stringify/sync';
 import { solveContact, type ContactOptions } from './contact.js';
 import { sweepParticleDensity, densitySweepSection } from './densitySweep.js';
-import { runScreen, sortScreenRows, writeScreenFolder, SCREEN_COLUMNS } from './screen.js';
+import { runScreen, sortScreenRows, writeScreenFolder, screenCsv } from './screen.js';
 import { writeContactReport } from './output/report.js';
 import { escapeHtml } from './output/escape.js';
 import { loadLibrary } from './materials/load.js';
@@ -58,7 +57,7 @@ export async function runDemo(options: DemoOptions): Promise<{ summary: string; 
     runScreen({ metals: DEMO_SCREEN.metals, supports: DEMO_SCREEN.supports, conditions: DEMO_SCREEN.conditions, materials: library }),
     'electronsPerParticle',
   );
-  writeFileSync(join(outDir, 'screen.csv'), stringify(screenRows as unknown as Record<string, unknown>[], { header: true, columns: SCREEN_COLUMNS as string[] }));
+  writeFileSync(join(outDir, 'screen.csv'), screenCsv(screenRows));
   await writeScreenFolder(join(outDir, 'screen'), screenRows, {
     title: 'Kestrel team screen: metals x reduced supports, 2.5 nm hemispheres at 473 K, 1e18 cm^-3 donors',
     metals: DEMO_SCREEN.metals,

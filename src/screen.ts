@@ -1,6 +1,7 @@
 // Screening: every metal x support pair at the same conditions, one row per pair.
 import { solveContact, type ContactOptions } from './contact.js';
-import { loadLibrary } from './materials/load.js';
+import { resolveLibrary } from './materials/load.js';
+import { stringify } from 'csv-stringify/sync';
 import type { MaterialsLibrary } from './materials/types.js';
 import type { ContactResult } from './types.js';
 import { InputError } from './errors.js';
@@ -72,7 +73,7 @@ function rowOf(metal: string, support: string, r: ContactResult | null, error: s
 export function runScreen(options: ScreenOptions): ScreenRow[] {
   if (options.metals.length === 0) throw new InputError('--metals', 'no metals given', 'a comma-separated list, or "all"');
   if (options.supports.length === 0) throw new InputError('--supports', 'no supports given', 'a comma-separated list, or "all"');
-  const library = Array.isArray(options.materials) || options.materials === undefined ? loadLibrary(options.materials ?? []) : options.materials;
+  const library = resolveLibrary(options.materials);
   const rows: ScreenRow[] = [];
   const total = options.metals.length * options.supports.length;
   for (const metal of options.metals) {
@@ -90,6 +91,11 @@ export function runScreen(options: ScreenOptions): ScreenRow[] {
     }
   }
   return rows;
+}
+
+/** The screen table as CSV, in the SCREEN_COLUMNS order. */
+export function screenCsv(rows: readonly ScreenRow[]): string {
+  return stringify(rows as unknown as Record<string, unknown>[], { header: true, columns: SCREEN_COLUMNS as string[] });
 }
 
 /** Sort rows: by a numeric column, largest magnitude first; failed rows last. */

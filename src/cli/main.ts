@@ -1,7 +1,6 @@
 // The `bandbend` command line. Exit codes: 0 ok, 2 bad input (one line naming the field), 1 internal error.
 import { Command, CommanderError, Option } from 'commander';
 import { readFileSync, existsSync, statSync, writeFileSync } from 'node:fs';
-import { stringify } from 'csv-stringify/sync';
 import { InputError, ConvergenceError, requireInRange } from '../errors.js';
 import { solveContact } from '../contact.js';
 import { addContactFlags, contactOptionsFrom } from './options.js';
@@ -10,9 +9,9 @@ import { writeContactReport, prepareReportDir } from '../output/report.js';
 import { sweepParticleDensity, densitySweepSection } from '../densitySweep.js';
 import { mottSchottkyFitSpec } from '../output/figures.js';
 import { renderSvg } from '../output/render.js';
-import { loadLibrary, findMetal, findSupport, formatCitation } from '../materials/load.js';
+import { resolveLibrary, findMetal, findSupport, formatCitation } from '../materials/load.js';
 import type { MaterialsLibrary, PropertyValue } from '../materials/types.js';
-import { runScreen, sortScreenRows, writeScreenFolder, SCREEN_COLUMNS, type ScreenRow } from '../screen.js';
+import { runScreen, sortScreenRows, writeScreenFolder, screenCsv, SCREEN_COLUMNS, type ScreenRow } from '../screen.js';
 import { parseCapacitanceCsv, fitMottSchottky, parseReferenceElectrode } from '../derived/mottSchottky.js';
 import { parseQuantity } from '../inputs/units.js';
 import { createProgress } from '../study/progress.js';
@@ -52,7 +51,7 @@ function writeJson(value: unknown): void {
 }
 
 function libraryFrom(files: unknown): MaterialsLibrary {
-  return loadLibrary(Array.isArray(files) ? (files as string[]) : []);
+  return resolveLibrary(Array.isArray(files) ? (files as string[]) : undefined);
 }
 
 function listOf(text: string | undefined, all: string[], field: string): string[] {
@@ -131,7 +130,7 @@ function buildProgram(): Command {
     progress.done();
     const csvTarget = opts['csv'];
     if (typeof csvTarget === 'string') {
-      const csv = stringify(rows as unknown as Record<string, unknown>[], { header: true, columns: SCREEN_COLUMNS as string[] });
+      const csv = screenCsv(rows);
       if (csvTarget === '-') process.stdout.write(csv);
       else {
         if (existsSync(csvTarget) && opts['force'] !== true) throw new InputError('--csv', `${csvTarget} exists; use --force to overwrite`);

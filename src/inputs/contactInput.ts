@@ -1,7 +1,7 @@
 // Inputs of one contact: user options (CLI flags or library call) + materials library -> resolved SI values with provenance.
 import { InputError, requireInRange } from '../errors.js';
 import type { InputProvenance, MaterialsLibrary, MetalRecord, PropertyValue, SupportRecord } from '../materials/types.js';
-import { findMetal, findSupport, provenanceOf, loadLibrary, formatCitation } from '../materials/load.js';
+import { findMetal, findSupport, provenanceOf, resolveLibrary, formatCitation } from '../materials/load.js';
 import { estimateElectronAffinity } from '../materials/estimate.js';
 import { parseQuantity, type QuantityInput } from './units.js';
 import {
@@ -140,12 +140,6 @@ export const LIMITS = {
   pinningFactor: [0, 1],
 } as const;
 
-function libraryOf(materials: ContactOptions['materials']): MaterialsLibrary {
-  if (materials === undefined) return loadLibrary();
-  if (Array.isArray(materials)) return loadLibrary(materials);
-  return materials;
-}
-
 interface Collector {
   lib: MaterialsLibrary;
   inputs: InputProvenance[];
@@ -198,7 +192,7 @@ function required<T>(value: T | undefined, field: string, hint: string): T {
 }
 
 export function resolveContact(options: ContactOptions): ResolvedContact {
-  const lib = libraryOf(options.materials);
+  const lib = resolveLibrary(options.materials);
   const c: Collector = { lib, inputs: [] };
   const cautions: string[] = [];
   const ranges = new Map<keyof SampledFields, [number, number]>();

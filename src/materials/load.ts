@@ -239,6 +239,16 @@ export function loadBuiltinLibrary(): MaterialsLibrary {
   return buildLibrary(builtinFiles());
 }
 
+/** A library given as an object, as extra files on top of the built-in one, or nothing (the built-in one). */
+export function resolveLibrary(materials: MaterialsLibrary | readonly string[] | undefined): MaterialsLibrary {
+  if (materials === undefined) return loadLibrary();
+  return isFileList(materials) ? loadLibrary([...materials]) : materials;
+}
+
+function isFileList(materials: MaterialsLibrary | readonly string[]): materials is readonly string[] {
+  return Array.isArray(materials);
+}
+
 /** The built-in library plus user files (JSON or YAML) that add or replace entries, in the order given. */
 export function loadLibrary(extraFiles: string[] = []): MaterialsLibrary {
   const user = extraFiles.map((path) => ({ label: path, data: parseMaterialsData(readDataFile(path, path), path) }));

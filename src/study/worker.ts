@@ -10,7 +10,7 @@ import { isMainThread, parentPort, workerData, type MessagePort } from 'node:wor
 import { solveContact } from '../contact.js';
 import { ConvergenceError, InputError } from '../errors.js';
 import type { ContactOptions } from '../inputs/contactInput.js';
-import { loadLibrary } from '../materials/load.js';
+import { loadLibrary, resolveLibrary } from '../materials/load.js';
 import type { CslItem, MaterialsLibrary, MetalRecord, SupportRecord } from '../materials/types.js';
 import { readOutput, type OutputValue } from './studyFile.js';
 
@@ -52,8 +52,7 @@ export function libraryFromEntries(e: LibraryEntries): MaterialsLibrary {
 
 /** What goes in the materials field of every point: a loaded library (files are read once). */
 export function resolveMaterials(materials: ContactOptions['materials']): MaterialsLibrary {
-  if (materials === undefined) return loadLibrary();
-  return Array.isArray(materials) ? loadLibrary(materials) : materials;
+  return resolveLibrary(materials);
 }
 
 /** One-line message of a failed point. */
