@@ -2,7 +2,6 @@
 // inputs -> materials -> bulk equilibrium -> barrier -> electrostatics -> derived results.
 import { EPS0_F_PER_M, Q_ELEMENTARY_C, thermalEnergy_eV } from './constants.js';
 import { InputError } from './errors.js';
-import { parseQuantity } from './inputs/units.js';
 import { propagateUncertainty } from './derived/uncertainty.js';
 import { resolveContact, type ContactOptions, type ResolvedContact } from './inputs/contactInput.js';
 import { makeChargeModel, solveBulkNeutrality, type ChargeModel, type BulkState } from './bulk/equilibrium.js';
@@ -22,14 +21,8 @@ export const MAX_BAND_BENDING_EV = 12;
 export function solveContact(options: ContactOptions): ContactResult {
   const resolved = resolveContact(options);
   const result = solveResolved(resolved);
-  const samples = options.uncertainty === undefined ? 0 : parseQuantity('--uncertainty', options.uncertainty, 'dimensionless');
-  if (!Number.isInteger(samples) || samples < 0 || samples > 100000) {
-    throw new InputError('--uncertainty', `expected a whole number of samples, got ${samples}`, '0 (off) to 100000');
-  }
-  const seed = options.seed === undefined ? 1 : parseQuantity('--seed', options.seed, 'dimensionless');
-  if (!Number.isInteger(seed) || seed < 0 || seed > 4294967295) throw new InputError('--seed', `expected an integer, got ${seed}`, '0 to 4294967295');
-  if (samples > 0) {
-    result.uncertainty = propagateUncertainty(resolved, solveResolved, samples, seed);
+  if (resolved.uncertaintySamples > 0) {
+    result.uncertainty = propagateUncertainty(resolved, solveResolved, resolved.uncertaintySamples, resolved.seed);
     if (resolved.ranges.size === 0) {
       result.warnings.push({ code: 'no-ranges', message: 'no input has a published range: the uncertainty sampling varied nothing' });
     }

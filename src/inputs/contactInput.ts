@@ -1,74 +1,32 @@
-// Inputs of one contact: user options (CLI flags or library call) + materials library -> resolved SI values with provenance.
+// Inputs of one contact: user options (CLI flags, study fields or library call) + materials library -> SI values
+// with provenance. A loop over the parameter table (inputs/parameters.ts) plus the real cross-field rules.
 import { InputError, requireInRange } from '../errors.js';
-import type { InputProvenance, MaterialsLibrary, MetalRecord, PropertyValue, SupportRecord } from '../materials/types.js';
+import type { InputProvenance, MaterialsLibrary, PropertyValue } from '../materials/types.js';
 import { findMetal, findSupport, provenanceOf, resolveLibrary, formatCitation } from '../materials/load.js';
 import { estimateElectronAffinity } from '../materials/estimate.js';
-import { parseQuantity, type QuantityInput } from './units.js';
+import { parseQuantity } from './units.js';
+import { frozenInDonorDensity, oxygenPressureFromHydrogenWater, vacancyDonorDensity, HYDROGEN_CAUTIONS } from './pretreatment.js';
 import {
-  frozenInDonorDensity,
-  oxygenPressureFromHydrogenWater,
-  vacancyDonorDensity,
-  HYDROGEN_CAUTIONS,
-} from './pretreatment.js';
+  PARAMETERS,
+  OPTION_NAMES,
+  closestName,
+  displayUnitOf,
+  flagName,
+  fromDisplay,
+  hasPretreatment,
+  row,
+  toDisplay,
+  type ContactOptions,
+  type LibraryRecords,
+  type OptionName,
+  type ParameterRow,
+  type RowContext,
+  type SampledField,
+} from './parameters.js';
 import type { BarrierModel, GeometryKind, PretreatmentInfo, Statistics } from '../types.js';
 import type { DonorKind } from '../bulk/equilibrium.js';
 
-/** Options of one contact calculation; mirrors the `bandbend contact` flags (camelCase). */
-export interface ContactOptions {
-  metal?: string;
-  workFunction?: QuantityInput;
-  /** shift added to the metal work function (adsorbates, small-particle effects), eV */
-  workFunctionShift?: QuantityInput;
-  /** where the shift comes from (recorded in provenance) */
-  workFunctionShiftSource?: string;
-  support?: string;
-  /** composition for estimating the electron affinity of an unlisted oxide, e.g. "Ce0.8Zr0.2O2" */
-  supportFormula?: string;
-  electronAffinity?: QuantityInput;
-  bandGap?: QuantityInput;
-  permittivity?: QuantityInput;
-  opticalPermittivity?: QuantityInput;
-  electronMass?: QuantityInput;
-  holeMass?: QuantityInput;
-  /** donor defect density (a double donor releases up to two electrons) */
-  donors?: QuantityInput;
-  /** depth of the donor (0/+) level below E_C */
-  donorLevel?: QuantityInput;
-  /** depth of the (+/2+) level of a double donor below E_C */
-  donorLevel2?: QuantityInput;
-  donorType?: DonorKind;
-  acceptors?: QuantityInput;
-  /** height of the acceptor level above E_V */
-  acceptorLevel?: QuantityInput;
-  temperature?: QuantityInput;
-  barrierModel?: BarrierModel;
-  pinningFactor?: QuantityInput;
-  neutralLevel?: QuantityInput;
-  barrier?: QuantityInput;
-  geometry?: GeometryKind;
-  particleDiameter?: QuantityInput;
-  /** areal particle density (per cm^2 for bare numbers) for the particle-array geometry */
-  particleDensity?: QuantityInput;
-  supportThickness?: QuantityInput;
-  statistics?: Statistics;
-  /** reduction pretreatment: temperature at which vacancies equilibrate (frozen in at the reaction temperature) */
-  reductionTemperature?: QuantityInput;
-  oxygenPressure?: QuantityInput;
-  /** pH2/pH2O of the reducing gas */
-  hydrogenToWater?: QuantityInput;
-  reductionEnthalpy?: QuantityInput;
-  /** reduction entropy in units of k_B */
-  reductionEntropy?: QuantityInput;
-  oxygenSites?: QuantityInput;
-  /** materials library, or extra materials files to load on top of the built-in one */
-  materials?: MaterialsLibrary | string[];
-  /** mesh refinement (1 = default accuracy) */
-  refinement?: number;
-  /** Monte Carlo samples over the published ranges of the material inputs (0 = off) */
-  uncertainty?: number | string;
-  /** seed of the Monte Carlo sampling */
-  seed?: number | string;
-}
+export type { ContactOptions } from './parameters.js';
 
 export interface ResolvedSupport {
   name: string;
@@ -108,434 +66,243 @@ export interface ResolvedContact {
   supportThickness_m: number | undefined;
   statistics: Statistics;
   refinement: number;
+  /** Monte Carlo samples (0 = off) and their seed */
+  uncertaintySamples: number;
+  seed: number;
   pretreatment: PretreatmentInfo;
   inputs: InputProvenance[];
   cautions: string[];
-  /** materials the sampling in uncertainty studies may vary: field -> [min, max] */
-  ranges: Map<keyof SampledFields, [number, number]>;
+  /** materials the sampling in uncertainty studies may vary: field -> [min, max] in SI */
+  ranges: Map<SampledField, [number, number]>;
 }
 
 /** Inputs an uncertainty study may vary within their published ranges. */
-export interface SampledFields {
-  workFunction_eV: number;
-  electronAffinity_eV: number;
-  bandGap_eV: number;
-  permittivity: number;
-  donors_m3: number;
-  donorLevel1_eV: number;
+export type SampledFields = Record<SampledField, number>;
+
+/** The values of the table rows as resolved so far (SI numbers, chosen names). */
+class Resolution implements RowContext {
+  readonly values = new Map<OptionName, number | string>();
+  readonly inputs: InputProvenance[] = [];
+  readonly cautions: string[] = [];
+  readonly ranges = new Map<SampledField, [number, number]>();
+  /** set when a reduction pretreatment gave the donors */
+  pretreatment: PretreatmentInfo | undefined;
+  constructor(
+    readonly options: ContactOptions,
+    readonly lib: MaterialsLibrary,
+    readonly records: LibraryRecords,
+  ) {}
+  value(option: OptionName): number | string | undefined {
+    return this.values.get(option);
+  }
+  given(option: OptionName): boolean {
+    return this.options[option] !== undefined;
+  }
+  num(option: OptionName): number | undefined {
+    return this.values.get(option) as number | undefined;
+  }
 }
 
-export const LIMITS = {
-  temperature_K: [50, 1500],
-  bandGap_eV: [0.1, 10],
-  workFunction_eV: [1, 8],
-  electronAffinity_eV: [0, 7],
-  permittivity: [1, 1e5],
-  mass_me: [0.01, 50],
-  density_cm3: [0, 1e23],
-  level_eV: [0, 10],
-  particleDiameter_nm: [0.2, 1000],
-  particleDensity_cm2: [1e6, 1e15],
-  supportThickness_nm: [0.5, 1e6],
-  pinningFactor: [0, 1],
-} as const;
-
-interface Collector {
-  lib: MaterialsLibrary;
-  inputs: InputProvenance[];
-}
-
-/** CLI flag of each provenance field, so parse errors name what the user typed. */
-const FLAG_OF: Readonly<Record<string, string>> = {
-  'metal work function': '--work-function',
-  'band gap': '--band-gap',
-  'electron affinity': '--electron-affinity',
-  'static permittivity': '--permittivity',
-  'optical permittivity': '--optical-permittivity',
-  'electron mass': '--electron-mass',
-  'hole mass': '--hole-mass',
-  'donor density': '--donors',
-  'acceptor density': '--acceptors',
-  'charge-neutrality level': '--neutral-level',
-  'pinning factor': '--pinning-factor',
-  'reduction enthalpy': '--reduction-enthalpy',
-  'reduction entropy': '--reduction-entropy',
-  'oxygen site density': '--oxygen-sites',
+/** Inputs that are computed from others when neither the user nor the library gives them (tried before fallbacks). */
+const DERIVED: Partial<Record<OptionName, (c: Resolution) => number | undefined>> = {
+  electronAffinity: electronAffinityFromFormula,
+  donors: (c) => (hasPretreatment(c) ? pretreatmentDonors(c) : undefined),
 };
 
-/** A value the user gave, or the library's, or none; records its provenance. */
-function pick(
-  c: Collector,
-  field: string,
-  user: QuantityInput | undefined,
-  kind: Parameters<typeof parseQuantity>[2],
-  library: PropertyValue | undefined,
-  unit: string,
-  toWorking: (v: number) => number = (v) => v,
-  fromWorking: (v: number) => number = (v) => v,
-): number | undefined {
-  if (user !== undefined && user !== null && user !== '') {
-    const v = parseQuantity(FLAG_OF[field] ?? field, user, kind);
-    c.inputs.push({ field, value: fromWorking(v), unit, origin: 'user' });
-    return v;
-  }
-  if (library !== undefined) {
-    c.inputs.push(provenanceOf(c.lib, field, library, unit));
-    return toWorking(library.value);
-  }
-  return undefined;
-}
-
-function required<T>(value: T | undefined, field: string, hint: string): T {
-  if (value === undefined) throw new InputError(field, 'missing', hint);
-  return value;
-}
+/** Refusals that need several options at once (the single-option ones are the `when` of each row). */
+const CROSS_RULES: { option: OptionName; refuse: (o: ContactOptions, c: Resolution) => boolean; message: string; allowed?: string }[] = [
+  {
+    option: 'donors',
+    refuse: (o, c) => o.donors !== undefined && hasPretreatment(c),
+    message: 'cannot be combined with a pretreatment (the pretreatment sets the donor density)',
+    allowed: 'either --donors or reduction conditions',
+  },
+  {
+    option: 'donorLevel2',
+    refuse: (o, c) => o.donorLevel !== undefined && c.value('donorType') === 'double' && o.donorLevel2 === undefined,
+    message: 'missing',
+    allowed: 'a double donor needs both level depths below E_C',
+  },
+  {
+    option: 'barrier',
+    refuse: (o, c) => c.value('barrierModel') === 'given' && o.barrier === undefined,
+    message: 'missing',
+    allowed: 'the given barrier model needs --barrier E',
+  },
+  {
+    option: 'particleDensity',
+    refuse: (o, c) => c.value('geometry') === 'array' && o.particleDensity === undefined,
+    message: 'the array geometry needs a particle density',
+    allowed: '1000000 to 1000000000000000 cm^-2',
+  },
+];
 
 export function resolveContact(options: ContactOptions): ResolvedContact {
+  checkOptionNames(options);
   const lib = resolveLibrary(options.materials);
-  const c: Collector = { lib, inputs: [] };
-  const cautions: string[] = [];
-  const ranges = new Map<keyof SampledFields, [number, number]>();
-
-  // temperature
-  const temperature_K = options.temperature === undefined ? 300 : parseQuantity('--temperature', options.temperature, 'temperature');
-  requireInRange('--temperature', temperature_K, LIMITS.temperature_K[0], LIMITS.temperature_K[1], 'K');
-  c.inputs.push({ field: 'temperature', value: temperature_K, unit: 'K', origin: options.temperature === undefined ? 'default' : 'user' });
-
-  const metal = resolveMetal(c, options, ranges);
-  const support = resolveSupport(c, options, ranges, temperature_K, cautions);
-
-  const barrierModel = options.barrierModel ?? 'ideal';
-  if (!['ideal', 'pinned', 'given'].includes(barrierModel)) {
-    throw new InputError('--barrier-model', `unknown model "${String(barrierModel)}"`, 'ideal, pinned, given');
-  }
-  let givenBarrier_eV: number | undefined;
-  if (barrierModel === 'given') {
-    givenBarrier_eV = parseQuantity('--barrier', required(options.barrier, '--barrier', 'the given barrier model needs --barrier E'), 'energy');
-    requireInRange('--barrier', givenBarrier_eV, -5, 12, 'eV');
-    c.inputs.push({ field: 'barrier (given)', value: givenBarrier_eV, unit: 'eV', origin: 'user' });
-  }
-
-  const geometry = options.geometry ?? 'planar';
-  if (!['planar', 'hemisphere', 'array'].includes(geometry)) {
-    throw new InputError('--geometry', `unknown geometry "${String(geometry)}"`, 'planar, hemisphere, array');
-  }
-  const particleDiameter_m = options.particleDiameter === undefined ? 2e-9 : parseQuantity('--particle-diameter', options.particleDiameter, 'length');
-  requireInRange('--particle-diameter', particleDiameter_m * 1e9, LIMITS.particleDiameter_nm[0], LIMITS.particleDiameter_nm[1], 'nm');
-  c.inputs.push({ field: 'particle diameter', value: particleDiameter_m * 1e9, unit: 'nm', origin: options.particleDiameter === undefined ? 'default' : 'user' });
-
-  let particleDensity_m2: number | undefined;
-  if (options.particleDensity !== undefined) {
-    particleDensity_m2 = parseQuantity('--particle-density', options.particleDensity, 'arealDensity');
-    requireInRange('--particle-density', particleDensity_m2 * 1e-4, LIMITS.particleDensity_cm2[0], LIMITS.particleDensity_cm2[1], 'cm^-2');
-    c.inputs.push({ field: 'particle density', value: particleDensity_m2 * 1e-4, unit: 'cm^-2', origin: 'user' });
-  }
-  if (geometry === 'array' && particleDensity_m2 === undefined) {
-    throw new InputError('--particle-density', 'the array geometry needs a particle density', `${LIMITS.particleDensity_cm2[0]} to ${LIMITS.particleDensity_cm2[1]} cm^-2`);
-  }
-  if (particleDensity_m2 !== undefined) {
-    // a particle cannot be wider than its share of the surface
-    const spacing = 1 / Math.sqrt(particleDensity_m2);
-    if (particleDiameter_m > spacing) {
-      throw new InputError('--particle-density', `particles of ${fmt(particleDiameter_m * 1e9)} nm overlap at a mean spacing of ${fmt(spacing * 1e9)} nm`, `below ${fmt(1 / (particleDiameter_m * particleDiameter_m) * 1e-4)} cm^-2 for this diameter`);
-    }
-  }
-
-  let supportThickness_m: number | undefined;
-  if (options.supportThickness !== undefined) {
-    supportThickness_m = parseQuantity('--support-thickness', options.supportThickness, 'length');
-    requireInRange('--support-thickness', supportThickness_m * 1e9, LIMITS.supportThickness_nm[0], LIMITS.supportThickness_nm[1], 'nm');
-    c.inputs.push({ field: 'support thickness', value: supportThickness_m * 1e9, unit: 'nm', origin: 'user' });
-  }
-
-  const statistics = options.statistics ?? 'fermi-dirac';
-  if (statistics !== 'fermi-dirac' && statistics !== 'boltzmann') {
-    throw new InputError('--statistics', `unknown statistics "${String(statistics)}"`, 'fermi-dirac, boltzmann');
-  }
-  const refinement = options.refinement ?? 1;
-  requireInRange('refinement', refinement, 0.25, 16, '');
-
-  return {
-    metal,
-    support: support.resolved,
-    temperature_K,
-    barrierModel,
-    givenBarrier_eV,
-    geometry,
-    particleDiameter_m,
-    particleDensity_m2,
-    supportThickness_m,
-    statistics,
-    refinement,
-    pretreatment: support.pretreatment,
-    inputs: c.inputs,
-    cautions,
-    ranges,
+  const records: LibraryRecords = {
+    metal: options.metal !== undefined ? findMetal(lib, textOf(row('metal'), options.metal)) : undefined,
+    support: options.support !== undefined ? findSupport(lib, textOf(row('support'), options.support)) : undefined,
   };
-}
-
-function fmt(v: number): string {
-  return String(Number(v.toPrecision(3)));
-}
-
-function resolveMetal(c: Collector, options: ContactOptions, ranges: ResolvedContact['ranges']): ResolvedMetal {
-  let record: MetalRecord | undefined;
-  if (options.metal !== undefined) record = findMetal(c.lib, options.metal);
-  if (record === undefined && options.workFunction === undefined) {
-    throw new InputError('--metal', 'give a metal name or --work-function', 'a library metal (see `bandbend materials list --kind metal`) or an energy');
-  }
-  const pv = record?.workFunction_eV;
-  let workFunction_eV = required(
-    pick(c, 'metal work function', options.workFunction, 'energy', pv, 'eV'),
-    '--work-function',
-    'an energy, e.g. "5.1 eV"',
-  );
-  requireInRange('--work-function', workFunction_eV, LIMITS.workFunction_eV[0], LIMITS.workFunction_eV[1], 'eV');
-  if (options.workFunction === undefined && pv?.min !== undefined && pv.max !== undefined) ranges.set('workFunction_eV', [pv.min, pv.max]);
-  if (options.workFunctionShift !== undefined) {
-    const shift = parseQuantity('--work-function-shift', options.workFunctionShift, 'energy');
-    requireInRange('--work-function-shift', shift, -3, 3, 'eV');
-    c.inputs.push({
-      field: 'work-function shift',
-      value: shift,
-      unit: 'eV',
-      origin: 'user',
-      ...(options.workFunctionShiftSource ? { note: `source: ${options.workFunctionShiftSource}` } : { note: 'no source given' }),
-    });
-    workFunction_eV += shift;
-    requireInRange('--work-function-shift', workFunction_eV, LIMITS.workFunction_eV[0], LIMITS.workFunction_eV[1], 'eV (shifted work function)');
-  }
-  const name = record?.name ?? (options.metal ?? 'custom metal');
-  const density = record ? pick(c, 'metal density', undefined, 'dimensionless', record.density_g_cm3, 'g/cm^3') : undefined;
-  const molar = record ? pick(c, 'metal molar mass', undefined, 'dimensionless', record.molarMass_g_mol, 'g/mol') : undefined;
-  const radius = record ? pick(c, 'metallic radius', undefined, 'dimensionless', record.metallicRadius_pm, 'pm') : undefined;
-  return { name, workFunction_eV, density_g_cm3: density, molarMass_g_mol: molar, metallicRadius_pm: radius };
-}
-
-function resolveSupport(
-  c: Collector,
-  options: ContactOptions,
-  ranges: ResolvedContact['ranges'],
-  temperature_K: number,
-  cautions: string[],
-): { resolved: ResolvedSupport; pretreatment: PretreatmentInfo } {
-  let record: SupportRecord | undefined;
-  if (options.support !== undefined) record = findSupport(c.lib, options.support);
-  const bandGap_eV = required(
-    pick(c, 'band gap', options.bandGap, 'energy', record?.bandGap_eV, 'eV'),
-    '--band-gap',
-    'an energy, e.g. "3.2 eV" (or a library support via --support)',
-  );
-  requireInRange('--band-gap', bandGap_eV, LIMITS.bandGap_eV[0], LIMITS.bandGap_eV[1], 'eV');
-  if (options.bandGap === undefined) setRange(ranges, 'bandGap_eV', record?.bandGap_eV);
-
-  let electronAffinity_eV = pick(c, 'electron affinity', options.electronAffinity, 'energy', record?.electronAffinity_eV, 'eV');
-  if (electronAffinity_eV === undefined && options.supportFormula !== undefined) {
-    const estimate = estimateElectronAffinity(options.supportFormula, bandGap_eV);
-    electronAffinity_eV = estimate.electronAffinity_eV;
-    c.inputs.push({ ...estimate.provenance, field: 'electron affinity' });
-    if (estimate.provenance.min !== undefined && estimate.provenance.max !== undefined) {
-      ranges.set('electronAffinity_eV', [estimate.provenance.min, estimate.provenance.max]);
+  const c = new Resolution(options, lib, records);
+  for (const p of PARAMETERS) {
+    resolveRow(c, p);
+    for (const rule of CROSS_RULES) {
+      if (rule.option === p.option && rule.refuse(options, c)) throw new InputError(flagName(p), rule.message, rule.allowed);
     }
   }
-  electronAffinity_eV = required(electronAffinity_eV, '--electron-affinity', 'an energy, e.g. "4.2 eV", or --support-formula to estimate it');
-  requireInRange('--electron-affinity', electronAffinity_eV, LIMITS.electronAffinity_eV[0], LIMITS.electronAffinity_eV[1], 'eV');
-  if (options.electronAffinity === undefined) setRange(ranges, 'electronAffinity_eV', record?.electronAffinity_eV);
-
-  const permittivity = required(
-    pick(c, 'static permittivity', options.permittivity, 'dimensionless', record?.staticPermittivity, ''),
-    '--permittivity',
-    'a relative permittivity >= 1',
-  );
-  requireInRange('--permittivity', permittivity, LIMITS.permittivity[0], LIMITS.permittivity[1], '');
-  if (options.permittivity === undefined) setRange(ranges, 'permittivity', record?.staticPermittivity);
-  let opticalPermittivity = pick(c, 'optical permittivity', options.opticalPermittivity, 'dimensionless', record?.opticalPermittivity, '');
-  if (opticalPermittivity === undefined) {
-    opticalPermittivity = permittivity;
-    c.inputs.push({ field: 'optical permittivity', value: permittivity, unit: '', origin: 'default', note: 'not given: static value used' });
-  }
-  requireInRange('--optical-permittivity', opticalPermittivity, LIMITS.permittivity[0], LIMITS.permittivity[1], '');
-  const electronMass_me = massOrDefault(c, 'electron mass', options.electronMass, record?.electronMass_me);
-  const holeMass_me = massOrDefault(c, 'hole mass', options.holeMass, record?.holeMass_me);
-
-  // pretreatment: vacancies from reduction conditions override the typical donor density
-  const pretreatment = resolvePretreatment(c, options, record, temperature_K, cautions);
-
-  // donors
-  let donorKind: DonorKind = options.donorType ?? 'single';
-  let donors_m3: number;
-  let donorLevel1_eV: number | undefined;
-  let donorLevel2_eV: number | undefined;
-  if (options.donorType !== undefined && options.donorType !== 'single' && options.donorType !== 'double') {
-    throw new InputError('--donor-type', `unknown donor type "${String(options.donorType)}"`, 'single, double');
-  }
-  const useLibraryLevels = options.donorLevel === undefined && record?.donor !== undefined;
-  if (pretreatment.vacancyDensity_cm3 !== null) {
-    donors_m3 = pretreatment.vacancyDensity_cm3 * 1e6;
-    donorKind = 'double';
-    c.inputs.push({ field: 'donor density (oxygen vacancies)', value: pretreatment.vacancyDensity_cm3, unit: 'cm^-3', origin: 'derived', note: `from the ${pretreatment.mode} pretreatment model` });
-  } else {
-    const typical = record?.conductionType !== 'p' ? record?.typicalDensity_cm3 : undefined;
-    const d = pick(c, 'donor density', options.donors, 'volumeDensity', typical, 'cm^-3', (v) => v * 1e6, (v) => v * 1e-6);
-    donors_m3 = d ?? 0;
-    if (d !== undefined && options.donors === undefined && typical?.min !== undefined && typical.max !== undefined) {
-      ranges.set('donors_m3', [typical.min * 1e6, typical.max * 1e6]);
-    }
-    if (useLibraryLevels && options.donorType === undefined) donorKind = record!.donor!.type;
-  }
-  requireInRange('--donors', donors_m3 * 1e-6, LIMITS.density_cm3[0], LIMITS.density_cm3[1], 'cm^-3');
-  if (options.donorLevel !== undefined) {
-    donorLevel1_eV = parseQuantity('--donor-level', options.donorLevel, 'energy');
-    c.inputs.push({ field: 'donor level (depth below E_C)', value: donorLevel1_eV, unit: 'eV', origin: 'user' });
-    if (donorKind === 'double') {
-      donorLevel2_eV = parseQuantity('--donor-level2', required(options.donorLevel2, '--donor-level2', 'a double donor needs both level depths below E_C'), 'energy');
-      c.inputs.push({ field: 'donor level 2 (depth below E_C)', value: donorLevel2_eV, unit: 'eV', origin: 'user' });
-    }
-  } else if (record?.donor !== undefined && donors_m3 > 0 && (donorKind === record.donor.type)) {
-    donorLevel1_eV = pick(c, `donor level (${record.donor.label})`, undefined, 'energy', record.donor.level1_eV, 'eV');
-    if (donorKind === 'double') {
-      donorLevel2_eV = record.donor.level2_eV ? pick(c, `donor level 2 (${record.donor.label})`, undefined, 'energy', record.donor.level2_eV, 'eV') : undefined;
-      if (donorLevel2_eV === undefined) donorLevel1_eV = undefined;
-    }
-    if (donorLevel1_eV !== undefined) setRange(ranges, 'donorLevel1_eV', record.donor.level1_eV);
-  } else if (options.donorLevel2 !== undefined) {
-    throw new InputError('--donor-level2', 'needs --donor-level and --donor-type double', 'both level depths below E_C');
-  }
-  for (const [field, v] of [['--donor-level', donorLevel1_eV], ['--donor-level2', donorLevel2_eV]] as const) {
-    if (v !== undefined) requireInRange(field, v, LIMITS.level_eV[0], Math.min(LIMITS.level_eV[1], bandGap_eV), 'eV (depth below E_C, within the gap)');
-  }
-
-  // acceptors
-  const typicalAcceptors = record?.conductionType === 'p' ? record.typicalDensity_cm3 : undefined;
-  const a = pick(c, 'acceptor density', options.acceptors, 'volumeDensity', typicalAcceptors, 'cm^-3', (v) => v * 1e6, (v) => v * 1e-6);
-  const acceptors_m3 = a ?? 0;
-  requireInRange('--acceptors', acceptors_m3 * 1e-6, LIMITS.density_cm3[0], LIMITS.density_cm3[1], 'cm^-3');
-  let acceptorLevel_eV: number | undefined;
-  if (options.acceptorLevel !== undefined) {
-    acceptorLevel_eV = parseQuantity('--acceptor-level', options.acceptorLevel, 'energy');
-    c.inputs.push({ field: 'acceptor level (height above E_V)', value: acceptorLevel_eV, unit: 'eV', origin: 'user' });
-  } else if (record?.acceptor !== undefined && acceptors_m3 > 0) {
-    acceptorLevel_eV = pick(c, `acceptor level (${record.acceptor.label})`, undefined, 'energy', record.acceptor.level_eV, 'eV');
-  }
-  if (acceptorLevel_eV !== undefined) requireInRange('--acceptor-level', acceptorLevel_eV, 0, bandGap_eV, 'eV (height above E_V, within the gap)');
-
-  const neutralLevel_eV = pick(c, 'charge-neutrality level', options.neutralLevel, 'energy', record?.neutralLevel_eV, 'eV below vacuum');
-  const pinningFactor = pick(c, 'pinning factor', options.pinningFactor, 'dimensionless', record?.pinningFactor, '');
-  if (pinningFactor !== undefined) requireInRange('--pinning-factor', pinningFactor, LIMITS.pinningFactor[0], LIMITS.pinningFactor[1], '');
-
-  return {
-    resolved: {
-      name: record?.name ?? options.support ?? (options.supportFormula ? `${options.supportFormula} (estimated)` : 'custom support'),
-      electronAffinity_eV,
-      bandGap_eV,
-      permittivity,
-      opticalPermittivity,
-      electronMass_me,
-      holeMass_me,
-      donorKind,
-      donors_m3,
-      donorLevel1_eV,
-      donorLevel2_eV,
-      acceptors_m3,
-      acceptorLevel_eV,
-      neutralLevel_eV,
-      pinningFactor,
-    },
-    pretreatment,
-  };
+  return assembleResolved(c);
 }
 
-function setRange(ranges: ResolvedContact['ranges'], key: keyof SampledFields, pv: PropertyValue | undefined): void {
-  if (pv?.min !== undefined && pv.max !== undefined && pv.max > pv.min) ranges.set(key, [pv.min, pv.max]);
-}
-
-function massOrDefault(c: Collector, field: string, user: QuantityInput | undefined, library: PropertyValue | undefined): number {
-  const m = pick(c, field, user, 'dimensionless', library, 'm_e');
-  if (m === undefined) {
-    c.inputs.push({ field, value: 1, unit: 'm_e', origin: 'default', note: 'not given: free-electron mass assumed' });
-    return 1;
+/** Unknown keys are refused with the CLI's wording (a misspelt option would otherwise be silently dropped). */
+function checkOptionNames(options: ContactOptions): void {
+  if (typeof options !== 'object' || options === null) throw new InputError('options', 'expected an object of contact options');
+  for (const key of Object.keys(options)) {
+    if (OPTION_NAMES.includes(key as OptionName)) continue;
+    const guess = closestName(key, OPTION_NAMES);
+    throw new InputError(key, `unknown option${guess !== undefined ? ` (did you mean "${guess}"?)` : ''}`, 'the ContactOptions names, see `bandbend contact --help`');
   }
-  requireInRange(FLAG_OF[field] ?? field, m, LIMITS.mass_me[0], LIMITS.mass_me[1], 'm_e');
-  return m;
 }
 
-function resolvePretreatment(
-  c: Collector,
-  options: ContactOptions,
-  record: SupportRecord | undefined,
-  temperature_K: number,
-  cautions: string[],
-): PretreatmentInfo {
-  const none: PretreatmentInfo = {
-    mode: 'given',
-    reductionTemperature_K: null,
-    oxygenPressure_Pa: null,
-    hydrogenToWater: null,
-    vacancyDensity_cm3: null,
-    equilibrationTemperature_K: null,
-  };
-  const hasGas = options.oxygenPressure !== undefined || options.hydrogenToWater !== undefined;
-  if (!hasGas) {
-    if (options.reductionTemperature !== undefined) {
-      throw new InputError('--reduction-temperature', 'needs --oxygen-pressure or --hydrogen-to-water', 'a reducing-gas condition');
+function textOf(p: ParameterRow, raw: unknown): string {
+  if (typeof raw !== 'string' || raw.trim() === '') throw new InputError(flagName(p), 'expected a non-empty name', p.help);
+  return raw.trim();
+}
+
+/** One row: the user's value, else the library's, else a derived one, else the fallback; with provenance. */
+function resolveRow(c: Resolution, p: ParameterRow): void {
+  const raw = c.options[p.option];
+  if (p.kind === 'materials' || p.option === 'metal' || p.option === 'support') return;
+  if (p.when !== undefined && !p.when.test(c)) {
+    if (raw !== undefined) throw new InputError(flagName(p), `only used ${p.when.text}`, `leave out ${flagName(p)}`);
+    return;
+  }
+  if (raw !== undefined) {
+    c.values.set(p.option, userValue(c, p, raw));
+    return;
+  }
+  const pv = p.library?.(c.records, c);
+  if (pv !== undefined) {
+    c.values.set(p.option, libraryValue(c, p, pv));
+    return;
+  }
+  const derived = DERIVED[p.option]?.(c);
+  if (derived !== undefined) {
+    c.values.set(p.option, checkLimits(p, derived));
+    return;
+  }
+  if (p.fallback === undefined) return;
+  const v = typeof p.fallback.value === 'function' ? p.fallback.value(c) : p.fallback.value;
+  c.values.set(p.option, v);
+  if (p.label !== undefined && typeof v === 'number') {
+    c.inputs.push({ field: p.label, value: toDisplay(p, v), unit: displayUnitOf(p).unit, origin: 'default', ...(p.fallback.note ? { note: p.fallback.note } : {}) });
+  }
+}
+
+function userValue(c: Resolution, p: ParameterRow, raw: unknown): number | string {
+  const flag = flagName(p);
+  if (p.kind === 'text') return textOf(p, raw);
+  if (p.kind === 'choice') {
+    if (typeof raw !== 'string' || !p.choices!.includes(raw)) {
+      throw new InputError(flag, `unknown ${flag.slice(2).replace(/-/g, ' ')} "${String(raw)}"`, p.choices!.join(', '));
     }
-    return none;
+    return raw;
   }
-  if (options.oxygenPressure !== undefined && options.hydrogenToWater !== undefined) {
-    throw new InputError('--hydrogen-to-water', 'give either --oxygen-pressure or --hydrogen-to-water, not both', 'one gas condition');
+  const v = parseQuantity(flag, raw as number | string, p.quantity ?? 'dimensionless');
+  if (p.kind === 'integer' && !Number.isInteger(v)) {
+    throw new InputError(flag, `expected a whole number, got ${v}`, `${p.limits![0]} to ${p.limits![1]}`);
   }
-  if (options.donors !== undefined) {
-    throw new InputError('--donors', 'cannot be combined with a pretreatment (the pretreatment sets the donor density)', 'either --donors or reduction conditions');
+  checkLimits(p, v);
+  if (p.label !== undefined) {
+    const note = p.option === 'workFunctionShift' ? { note: shiftSourceNote(c.options) } : {};
+    c.inputs.push({ field: p.label, value: toDisplay(p, v), unit: displayUnitOf(p).unit, origin: 'user', ...note });
   }
-  const frozen = options.reductionTemperature !== undefined;
-  const equilibrationTemperature_K = frozen ? parseQuantity('--reduction-temperature', options.reductionTemperature, 'temperature') : temperature_K;
-  if (frozen) {
-    requireInRange('--reduction-temperature', equilibrationTemperature_K, 298, 1500, 'K');
-    c.inputs.push({ field: 'reduction temperature', value: equilibrationTemperature_K, unit: 'K', origin: 'user' });
+  return v;
+}
+
+function shiftSourceNote(o: ContactOptions): string {
+  return o.workFunctionShiftSource ? `source: ${o.workFunctionShiftSource}` : 'no source given';
+}
+
+/** A library value: in the row's display unit, converted like a user value, its published range kept for sampling. */
+function libraryValue(c: Resolution, p: ParameterRow, pv: PropertyValue): number {
+  const v = checkLimits(p, fromDisplay(p, pv.value));
+  const label = p.libraryLabel?.(c.records) ?? p.label ?? p.option;
+  c.inputs.push(provenanceOf(c.lib, label, pv, displayUnitOf(p).unit));
+  if (p.sampledAs !== undefined && pv.min !== undefined && pv.max !== undefined && pv.max > pv.min) {
+    c.ranges.set(p.sampledAs, [fromDisplay(p, pv.min), fromDisplay(p, pv.max)]);
   }
+  return v;
+}
+
+function checkLimits(p: ParameterRow, si: number): number {
+  if (p.limits === undefined) return si;
+  const { unit } = displayUnitOf(p);
+  requireInRange(flagName(p), toDisplay(p, si), toDisplay(p, p.limits[0]), toDisplay(p, p.limits[1]), unit);
+  return si;
+}
+
+function electronAffinityFromFormula(c: Resolution): number | undefined {
+  const formula = c.value('supportFormula') as string | undefined;
+  if (formula === undefined) return undefined;
+  const estimate = estimateElectronAffinity(formula, c.num('bandGap')!);
+  c.inputs.push({ ...estimate.provenance, field: 'electron affinity' });
+  const { min, max } = estimate.provenance;
+  if (min !== undefined && max !== undefined) c.ranges.set('electronAffinity_eV', [min, max]);
+  return estimate.electronAffinity_eV;
+}
+
+function required(c: Resolution, option: OptionName, hint: string): number {
+  const v = c.num(option);
+  if (v === undefined) throw new InputError(flagName(row(option)), 'missing', hint);
+  return v;
+}
+
+/** Donors from the reduction pretreatment: oxygen vacancies (double donors) from the gas condition. */
+function pretreatmentDonors(c: Resolution): number {
+  const info = pretreatmentInfo(c);
+  c.pretreatment = info;
+  c.inputs.push({
+    field: 'donor density (oxygen vacancies)',
+    value: info.vacancyDensity_cm3!,
+    unit: 'cm^-3',
+    origin: 'derived',
+    note: `from the ${info.mode} pretreatment model`,
+  });
+  return info.vacancyDensity_cm3! * 1e6;
+}
+
+function pretreatmentInfo(c: Resolution): PretreatmentInfo {
+  const temperature_K = c.num('temperature')!;
+  const frozen = c.given('reductionTemperature');
+  const equilibrationTemperature_K = frozen ? c.num('reductionTemperature')! : temperature_K;
+  const hydrogenToWater = c.num('hydrogenToWater') ?? null;
   let oxygenPressure_bar: number;
-  let hydrogenToWater: number | null = null;
-  if (options.oxygenPressure !== undefined) {
-    oxygenPressure_bar = parseQuantity('--oxygen-pressure', options.oxygenPressure, 'pressure') / 1e5;
-    requireInRange('--oxygen-pressure', oxygenPressure_bar, 1e-60, 100, 'bar');
-    c.inputs.push({ field: 'oxygen pressure', value: oxygenPressure_bar, unit: 'bar', origin: 'user' });
-  } else {
-    hydrogenToWater = parseQuantity('--hydrogen-to-water', options.hydrogenToWater, 'dimensionless');
-    requireInRange('--hydrogen-to-water', hydrogenToWater, 1e-6, 1e8, '(pH2/pH2O)');
-    c.inputs.push({ field: 'H2/H2O ratio', value: hydrogenToWater, unit: '', origin: 'user' });
+  if (hydrogenToWater === null) oxygenPressure_bar = c.num('oxygenPressure')! / 1e5;
+  else {
     const po2 = oxygenPressureFromHydrogenWater({ temperature_K: equilibrationTemperature_K, hydrogenToWater });
     oxygenPressure_bar = po2.oxygenPressure_bar;
+    const ref = c.lib.references.get('chase1998');
     c.inputs.push({
       field: 'oxygen pressure (from H2/H2O)',
       value: oxygenPressure_bar,
       unit: 'bar',
       origin: 'derived',
       source: 'chase1998',
-      ...(c.lib.references.has('chase1998') ? { citation: formatCitation(c.lib.references.get('chase1998')!) } : {}),
+      ...(ref !== undefined ? { citation: formatCitation(ref) } : {}),
       note: `water-formation equilibrium, Delta_f G(H2O,g) = ${po2.waterGibbsFormation_kJ_mol.toFixed(2)} kJ/mol at ${equilibrationTemperature_K} K`,
     });
-    cautions.push(...HYDROGEN_CAUTIONS);
+    c.cautions.push(...HYDROGEN_CAUTIONS);
   }
-  const reduction = record?.reduction;
-  const enthalpy_eV = required(
-    pick(c, 'reduction enthalpy', options.reductionEnthalpy, 'energy', reduction?.enthalpy_eV, 'eV'),
-    '--reduction-enthalpy',
-    `an energy per vacancy (the library has no reduction data for ${record?.name ?? 'this support'})`,
-  );
-  const entropy_kB = required(
-    pick(c, 'reduction entropy', options.reductionEntropy, 'dimensionless', reduction?.entropy_kB, 'k_B'),
-    '--reduction-entropy',
-    'an entropy per vacancy in units of k_B',
-  );
-  const oxygenSites_cm3 = required(
-    pick(c, 'oxygen site density', options.oxygenSites, 'volumeDensity', reduction?.oxygenSites_cm3, 'cm^-3', (v) => v * 1e6, (v) => v * 1e-6),
-    '--oxygen-sites',
-    'a density of oxygen lattice sites, e.g. "5e22 cm^-3"',
-  ) * 1e-6;
-  const vacancyInput = { enthalpy_eV, entropy_kB, oxygenSites_cm3, temperature_K: equilibrationTemperature_K, oxygenPressure_bar };
-  const result = frozen
-    ? frozenInDonorDensity({ reduction: vacancyInput, reactionTemperature_K: temperature_K })
-    : vacancyDonorDensity(vacancyInput);
+  const name = c.records.support?.name ?? 'this support';
+  const vacancyInput = {
+    enthalpy_eV: required(c, 'reductionEnthalpy', `an energy per vacancy (the library has no reduction data for ${name})`),
+    entropy_kB: required(c, 'reductionEntropy', 'an entropy per vacancy in units of k_B'),
+    oxygenSites_cm3: required(c, 'oxygenSites', 'a density of oxygen lattice sites, e.g. "5e22 cm^-3"') * 1e-6,
+    temperature_K: equilibrationTemperature_K,
+    oxygenPressure_bar,
+  };
+  const result = frozen ? frozenInDonorDensity({ reduction: vacancyInput, reactionTemperature_K: temperature_K }) : vacancyDonorDensity(vacancyInput);
   return {
     mode: frozen ? 'frozen-in' : 'equilibrium',
     reductionTemperature_K: frozen ? equilibrationTemperature_K : null,
@@ -543,5 +310,101 @@ function resolvePretreatment(
     hydrogenToWater,
     vacancyDensity_cm3: result.vacancyDensity_cm3,
     equilibrationTemperature_K,
+  };
+}
+
+const NO_PRETREATMENT: PretreatmentInfo = {
+  mode: 'given',
+  reductionTemperature_K: null,
+  oxygenPressure_Pa: null,
+  hydrogenToWater: null,
+  vacancyDensity_cm3: null,
+  equilibrationTemperature_K: null,
+};
+
+function fmt(v: number): string {
+  return String(Number(v.toPrecision(3)));
+}
+
+/** Checks between resolved values that the rows cannot make alone. */
+function checkResolved(c: Resolution): void {
+  const gap = c.num('bandGap')!;
+  for (const option of ['donorLevel', 'donorLevel2'] as const) {
+    const v = c.num(option);
+    if (v !== undefined) requireInRange(flagName(row(option)), v, 0, Math.min(10, gap), 'eV (depth below E_C, within the gap)');
+  }
+  const acceptorLevel = c.num('acceptorLevel');
+  if (acceptorLevel !== undefined) requireInRange('--acceptor-level', acceptorLevel, 0, gap, 'eV (height above E_V, within the gap)');
+  const shifted = c.num('workFunction')! + (c.num('workFunctionShift') ?? 0);
+  requireInRange(c.given('workFunctionShift') ? '--work-function-shift' : '--work-function', shifted, 1, 8, 'eV (shifted work function)');
+  const density = c.num('particleDensity');
+  const diameter = c.num('particleDiameter')!;
+  // a particle cannot be wider than its share of the surface
+  if (density !== undefined && diameter > 1 / Math.sqrt(density)) {
+    throw new InputError(
+      '--particle-density',
+      `particles of ${fmt(diameter * 1e9)} nm overlap at a mean spacing of ${fmt(1e9 / Math.sqrt(density))} nm`,
+      `below ${fmt((1 / (diameter * diameter)) * 1e-4)} cm^-2 for this diameter`,
+    );
+  }
+}
+
+function assembleResolved(c: Resolution): ResolvedContact {
+  if (c.records.metal === undefined && !c.given('workFunction')) {
+    throw new InputError('--metal', 'give a metal name or --work-function', 'a library metal (see `bandbend materials list --kind metal`) or an energy');
+  }
+  required(c, 'bandGap', 'an energy, e.g. "3.2 eV" (or a library support via --support)');
+  required(c, 'electronAffinity', 'an energy, e.g. "4.2 eV", or --support-formula to estimate it');
+  required(c, 'permittivity', 'a relative permittivity >= 1');
+  checkResolved(c);
+  const { metal: m, support: s } = c.records;
+  const numbers = (pv: PropertyValue | undefined, field: string, unit: string): number | undefined => {
+    if (pv === undefined) return undefined;
+    c.inputs.push(provenanceOf(c.lib, field, pv, unit));
+    return pv.value;
+  };
+  const metal: ResolvedMetal = {
+    name: m?.name ?? 'custom metal',
+    workFunction_eV: c.num('workFunction')! + (c.num('workFunctionShift') ?? 0),
+    density_g_cm3: numbers(m?.density_g_cm3, 'metal density', 'g/cm^3'),
+    molarMass_g_mol: numbers(m?.molarMass_g_mol, 'metal molar mass', 'g/mol'),
+    metallicRadius_pm: numbers(m?.metallicRadius_pm, 'metallic radius', 'pm'),
+  };
+  const formula = c.value('supportFormula') as string | undefined;
+  const support: ResolvedSupport = {
+    name: s?.name ?? (formula !== undefined ? `${formula} (estimated)` : 'custom support'),
+    electronAffinity_eV: c.num('electronAffinity')!,
+    bandGap_eV: c.num('bandGap')!,
+    permittivity: c.num('permittivity')!,
+    opticalPermittivity: c.num('opticalPermittivity')!,
+    electronMass_me: c.num('electronMass')!,
+    holeMass_me: c.num('holeMass')!,
+    donorKind: c.value('donorType') as DonorKind,
+    donors_m3: c.num('donors') ?? 0,
+    donorLevel1_eV: c.num('donorLevel'),
+    donorLevel2_eV: c.num('donorLevel2'),
+    acceptors_m3: c.num('acceptors') ?? 0,
+    acceptorLevel_eV: c.num('acceptorLevel'),
+    neutralLevel_eV: c.num('neutralLevel'),
+    pinningFactor: c.num('pinningFactor'),
+  };
+  return {
+    metal,
+    support,
+    temperature_K: c.num('temperature')!,
+    barrierModel: c.value('barrierModel') as BarrierModel,
+    givenBarrier_eV: c.num('barrier'),
+    geometry: c.value('geometry') as GeometryKind,
+    particleDiameter_m: c.num('particleDiameter')!,
+    particleDensity_m2: c.num('particleDensity'),
+    supportThickness_m: c.num('supportThickness'),
+    statistics: c.value('statistics') as Statistics,
+    refinement: c.num('refinement')!,
+    uncertaintySamples: c.num('uncertainty')!,
+    seed: c.num('seed') ?? 1,
+    pretreatment: c.pretreatment ?? NO_PRETREATMENT,
+    inputs: c.inputs,
+    cautions: c.cautions,
+    ranges: c.ranges,
   };
 }

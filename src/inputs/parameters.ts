@@ -1,0 +1,421 @@
+// The parameter table: every input of one contact, once. The CLI flags and help (cli/options.ts), the
+// study-file fields and their validation (study/studyFile.ts), the limits, the provenance labels, the
+// library defaults and the --uncertainty sampling are all generated from ROWS below; resolveContact
+// (inputs/contactInput.ts) is a loop over it plus the cross-field rules.
+//
+// Row format (one object per ContactOptions field, in help order; the key is the option name, never renamed):
+//   flag       CLI flag with its value name, e.g. '--donors <N>' (choices get their list from `choices`)
+//   help       help text; `defaultText` is appended as "(default: ...)" and must match the @default tag of
+//              the ContactOptions field (test/parameters.test.ts compares them)
+//   kind       'quantity' (a number with a unit), 'integer', 'choice', 'text', 'materials'
+//   quantity   for quantities: the unit kind parsed by inputs/units.ts (bare numbers take its default unit)
+//   unit       unit shown in provenance and messages when it differs from the kind's display unit ('m_e', 'k_B')
+//   limits     [min, max] in SI (eV for energies); checked for user and library values alike
+//   label      provenance label (InputProvenance.field)
+//   library    which MetalRecord / SupportRecord property supplies the default (in the display unit)
+//   fallback   value used when neither the user nor the library gives one, with its provenance note
+//   choices    allowed values of a categorical input
+//   sampling   how --uncertainty samples the library range: 'uniform' or 'log-uniform', into `sampledAs`
+//   categorical  text inputs that a study may sweep with a list of names
+//
+// Adding a numeric input: add the field (with @default) to ContactOptions, add its row, and use its SI value
+// (`values.get('yourOption')`) in the physics. Flag, help, study field, limits, provenance and sampling follow.
+import type { MetalRecord, PropertyValue, SupportRecord } from '../materials/types.js';
+import type { MaterialsLibrary } from '../materials/types.js';
+import type { QuantityInput, QuantityKind } from './units.js';
+import type { BarrierModel, GeometryKind, Statistics } from '../types.js';
+import type { DonorKind } from '../bulk/equilibrium.js';
+
+/** Options of one contact calculation (library call, study `base`, CLI flags in camelCase). */
+export interface ContactOptions {
+  /** metal from the materials library @default none (give workFunction instead) */
+  metal?: string;
+  /** metal work function, eV if bare @default library value of the metal */
+  workFunction?: QuantityInput;
+  /** shift added to the metal work function (adsorbates, small-particle effects), eV @default 0 eV */
+  workFunctionShift?: QuantityInput;
+  /** where the shift comes from (recorded in provenance) @default none */
+  workFunctionShiftSource?: string;
+  /** support oxide from the materials library @default none (give its properties instead) */
+  support?: string;
+  /** composition for estimating the electron affinity of an unlisted oxide, e.g. "Ce0.8Zr0.2O2" @default none */
+  supportFormula?: string;
+  /** support electron affinity, eV @default library value of the support */
+  electronAffinity?: QuantityInput;
+  /** support band gap, eV @default library value of the support */
+  bandGap?: QuantityInput;
+  /** static relative permittivity @default library value of the support */
+  permittivity?: QuantityInput;
+  /** high-frequency relative permittivity @default library value, else the static permittivity */
+  opticalPermittivity?: QuantityInput;
+  /** electron density-of-states mass, m_e @default library value, else 1 m_e */
+  electronMass?: QuantityInput;
+  /** hole density-of-states mass, m_e @default library value, else 1 m_e */
+  holeMass?: QuantityInput;
+  /** donor defect density, cm^-3 if bare (a double donor releases up to two electrons) @default library typical density of an n-type support, else 0 */
+  donors?: QuantityInput;
+  /** depth of the donor (0/+) level below E_C @default library donor level, else fully ionised */
+  donorLevel?: QuantityInput;
+  /** depth of the (+/2+) level of a double donor below E_C @default library donor level, else fully ionised */
+  donorLevel2?: QuantityInput;
+  /** single or double donor @default library donor type, else single */
+  donorType?: DonorKind;
+  /** acceptor density, cm^-3 if bare @default library typical density of a p-type support, else 0 */
+  acceptors?: QuantityInput;
+  /** height of the acceptor level above E_V @default library acceptor level, else fully ionised */
+  acceptorLevel?: QuantityInput;
+  /** temperature, K if bare @default 300 K */
+  temperature?: QuantityInput;
+  /** barrier model @default ideal */
+  barrierModel?: BarrierModel;
+  /** pinning factor S (pinned model only) @default library value, else empirical from the optical permittivity */
+  pinningFactor?: QuantityInput;
+  /** charge-neutrality level below vacuum, eV (pinned model only) @default library value of the support */
+  neutralLevel?: QuantityInput;
+  /** measured barrier for the majority carrier (given model only) @default none */
+  barrier?: QuantityInput;
+  /** contact geometry @default planar */
+  geometry?: GeometryKind;
+  /** particle diameter, nm if bare @default 2 nm */
+  particleDiameter?: QuantityInput;
+  /** areal particle density, cm^-2 if bare (array geometry only) @default none */
+  particleDensity?: QuantityInput;
+  /** support grain thickness, nm if bare @default semi-infinite */
+  supportThickness?: QuantityInput;
+  /** carrier statistics @default fermi-dirac */
+  statistics?: Statistics;
+  /** reduction pretreatment temperature at which vacancies equilibrate (frozen in) @default the temperature (equilibrium) */
+  reductionTemperature?: QuantityInput;
+  /** oxygen pressure of the pretreatment, bar if bare @default none */
+  oxygenPressure?: QuantityInput;
+  /** pH2/pH2O of the reducing gas @default none */
+  hydrogenToWater?: QuantityInput;
+  /** vacancy formation (reduction) enthalpy per vacancy, eV @default library value of the support */
+  reductionEnthalpy?: QuantityInput;
+  /** reduction entropy per vacancy, in units of k_B @default library value of the support */
+  reductionEntropy?: QuantityInput;
+  /** oxygen lattice site density, cm^-3 if bare @default library value of the support */
+  oxygenSites?: QuantityInput;
+  /** materials library, or extra materials files to load on top of the built-in one @default the built-in library */
+  materials?: MaterialsLibrary | string[];
+  /** mesh refinement factor @default 1 */
+  refinement?: number | string;
+  /** Monte Carlo samples over the published ranges of the material inputs @default 0 (off) */
+  uncertainty?: number | string;
+  /** seed of the Monte Carlo sampling @default 1 */
+  seed?: number | string;
+}
+
+export type OptionName = keyof ContactOptions;
+
+/** Library records a row may read its default from. */
+export interface LibraryRecords {
+  metal: MetalRecord | undefined;
+  support: SupportRecord | undefined;
+}
+
+/** What a row's `when`, `library` and `fallback` may read: the rows above it, and what the user gave. */
+export interface RowContext {
+  readonly records: LibraryRecords;
+  /** resolved value of a row above (SI number, or the chosen name) */
+  value(option: OptionName): number | string | undefined;
+  /** the user gave this option */
+  given(option: OptionName): boolean;
+}
+
+/** Inputs an uncertainty study may vary within their published ranges (ResolvedContact field names). */
+export type SampledField = 'workFunction_eV' | 'electronAffinity_eV' | 'bandGap_eV' | 'permittivity' | 'donors_m3' | 'donorLevel1_eV';
+
+export type ParameterKind = 'quantity' | 'integer' | 'choice' | 'text' | 'materials';
+
+export interface ParameterRow {
+  option: OptionName;
+  flag: string;
+  help: string;
+  defaultText?: string;
+  kind: ParameterKind;
+  quantity?: QuantityKind;
+  unit?: string;
+  limits?: readonly [number, number];
+  label?: string;
+  library?: (r: LibraryRecords, c: RowContext) => PropertyValue | undefined;
+  /** provenance label of the library value when it differs from `label` */
+  libraryLabel?: (r: LibraryRecords) => string;
+  fallback?: { value: number | string | ((c: RowContext) => number | string); note?: string };
+  /** the input is used only when test() holds: given otherwise it is refused naming `text`; not given, it is skipped */
+  when?: { test: (c: RowContext) => boolean; text: string };
+  choices?: readonly string[];
+  sampling?: 'uniform' | 'log-uniform';
+  sampledAs?: SampledField;
+  categorical?: boolean;
+  /** a property of the named material: a screen refuses to apply it to every row unless asked to */
+  identifies?: 'metal' | 'support';
+}
+
+/** Display unit of each quantity kind (provenance, messages, library values) and its size in SI. */
+export const DISPLAY_UNITS: Readonly<Record<QuantityKind, { unit: string; si: string; perSi: number }>> = {
+  energy: { unit: 'eV', si: 'eV', perSi: 1 },
+  volumeDensity: { unit: 'cm^-3', si: 'm^-3', perSi: 1e-6 },
+  arealDensity: { unit: 'cm^-2', si: 'm^-2', perSi: 1e-4 },
+  temperature: { unit: 'K', si: 'K', perSi: 1 },
+  length: { unit: 'nm', si: 'm', perSi: 1e9 },
+  pressure: { unit: 'bar', si: 'Pa', perSi: 1e-5 },
+  dimensionless: { unit: '', si: '', perSi: 1 },
+};
+
+type RowSpec = Omit<ParameterRow, 'option'>;
+type Shape = Pick<RowSpec, 'kind' | 'quantity' | 'limits'>;
+const energy = (limits: readonly [number, number]): Shape => ({ kind: 'quantity', quantity: 'energy', limits });
+const plain = (limits: readonly [number, number]): Shape => ({ kind: 'quantity', quantity: 'dimensionless', limits });
+const DENSITY_M3 = [0, 1e29] as const;
+const LEVEL_EV = [0, 10] as const;
+const MASS_ME = [0.01, 50] as const;
+const PERMITTIVITY = [1, 1e5] as const;
+const FREE_MASS = { value: 1, note: 'not given: free-electron mass assumed' };
+const typicalIf = (p: boolean) => (r: LibraryRecords): PropertyValue | undefined =>
+  p === (r.support?.conductionType === 'p') ? r.support?.typicalDensity_cm3 : undefined;
+/** a reduction pretreatment sets the donors (oxygen vacancies) */
+export const hasPretreatment = (c: RowContext): boolean => c.given('oxygenPressure') || c.given('hydrogenToWater');
+const PRETREATMENT = { test: hasPretreatment, text: 'with a reduction pretreatment (--oxygen-pressure or --hydrogen-to-water)' };
+const positive = (c: RowContext, o: OptionName): boolean => ((c.value(o) as number | undefined) ?? 0) > 0;
+/** the library donor applies when its type is the chosen one (a double donor needs both levels) */
+const libraryDonor = (r: LibraryRecords, c: RowContext) => {
+  const d = r.support?.donor;
+  if (d === undefined || !positive(c, 'donors') || c.given('donorLevel') || c.value('donorType') !== d.type) return undefined;
+  return d.type === 'double' && d.level2_eV === undefined ? undefined : d;
+};
+
+/**
+ * The rows, keyed by option name: the Record type makes the compiler check that every option has one.
+ * Rows resolve in this order; a row's `when`, `library` and `fallback` may read the rows above it.
+ */
+const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
+  materials: {
+    flag: '--materials <FILE...>', help: 'extra materials file(s) (JSON/YAML) adding or overriding entries', defaultText: 'the built-in library', kind: 'materials',
+  },
+  temperature: {
+    flag: '--temperature <T>', help: 'temperature (K if bare; "200 degC" works)', defaultText: '300 K',
+    kind: 'quantity', quantity: 'temperature', limits: [50, 1500], label: 'temperature', fallback: { value: 300 },
+  },
+  metal: { flag: '--metal <NAME>', help: 'metal from the materials library (or give --work-function)', kind: 'text', categorical: true },
+  workFunction: {
+    flag: '--work-function <E>', help: 'metal work function (eV if bare)', defaultText: 'library value of the metal', ...energy([1, 8]),
+    label: 'metal work function', library: (r) => r.metal?.workFunction_eV, sampling: 'uniform', sampledAs: 'workFunction_eV', identifies: 'metal',
+  },
+  workFunctionShift: {
+    flag: '--work-function-shift <E>', help: 'shift added to the work function (adsorbates, size effects)', defaultText: '0 eV',
+    ...energy([-3, 3]), label: 'work-function shift',
+  },
+  workFunctionShiftSource: {
+    flag: '--work-function-shift-source <TEXT>', help: 'where the shift comes from (recorded in provenance)', kind: 'text',
+    when: { test: (c) => c.given('workFunctionShift'), text: 'with --work-function-shift' },
+  },
+  support: { flag: '--support <NAME>', help: 'support oxide from the materials library (or give its properties)', kind: 'text', categorical: true },
+  bandGap: {
+    flag: '--band-gap <E>', help: 'support band gap (eV)', defaultText: 'library value of the support', ...energy([0.1, 10]),
+    label: 'band gap', library: (r) => r.support?.bandGap_eV, sampling: 'uniform', sampledAs: 'bandGap_eV', identifies: 'support',
+  },
+  supportFormula: {
+    flag: '--support-formula <FORMULA>', help: 'estimate the electron affinity of an unlisted oxide, e.g. Ce0.8Zr0.2O2', kind: 'text', categorical: true,
+    when: { test: (c) => !c.given('electronAffinity') && c.records.support === undefined, text: 'without --electron-affinity and --support' },
+  },
+  electronAffinity: {
+    flag: '--electron-affinity <E>', help: 'support electron affinity (eV)', defaultText: 'library value of the support', ...energy([0, 7]),
+    label: 'electron affinity', library: (r) => r.support?.electronAffinity_eV, sampling: 'uniform', sampledAs: 'electronAffinity_eV', identifies: 'support',
+  },
+  permittivity: {
+    flag: '--permittivity <ER>', help: 'static relative permittivity', defaultText: 'library value of the support', ...plain(PERMITTIVITY),
+    label: 'static permittivity', library: (r) => r.support?.staticPermittivity, sampling: 'uniform', sampledAs: 'permittivity', identifies: 'support',
+  },
+  opticalPermittivity: {
+    flag: '--optical-permittivity <ER>', help: 'high-frequency permittivity (image force, pinning factor)',
+    defaultText: 'library value, else the static permittivity', ...plain(PERMITTIVITY), label: 'optical permittivity',
+    library: (r) => r.support?.opticalPermittivity, identifies: 'support',
+    fallback: { value: (c) => c.value('permittivity') as number, note: 'not given: static value used' },
+  },
+  electronMass: {
+    flag: '--electron-mass <M>', help: 'electron density-of-states mass (m_e)', defaultText: 'library value, else 1 m_e', ...plain(MASS_ME),
+    unit: 'm_e', label: 'electron mass', library: (r) => r.support?.electronMass_me, fallback: FREE_MASS, identifies: 'support',
+  },
+  holeMass: {
+    flag: '--hole-mass <M>', help: 'hole density-of-states mass (m_e)', defaultText: 'library value, else 1 m_e', ...plain(MASS_ME),
+    unit: 'm_e', label: 'hole mass', library: (r) => r.support?.holeMass_me, fallback: FREE_MASS, identifies: 'support',
+  },
+  reductionTemperature: {
+    flag: '--reduction-temperature <T>', help: 'reduction pretreatment temperature (vacancies frozen in)', defaultText: 'the temperature (equilibrium)',
+    kind: 'quantity', quantity: 'temperature', limits: [298, 1500], label: 'reduction temperature', when: PRETREATMENT,
+  },
+  oxygenPressure: {
+    flag: '--oxygen-pressure <P>', help: 'oxygen pressure of the pretreatment (bar if bare, "1e-20 bar")',
+    kind: 'quantity', quantity: 'pressure', limits: [1e-55, 1e7], label: 'oxygen pressure',
+    when: { test: (c) => !c.given('hydrogenToWater'), text: 'without --hydrogen-to-water (give one gas condition)' },
+  },
+  hydrogenToWater: { flag: '--hydrogen-to-water <R>', help: 'pH2/pH2O of the reducing gas', ...plain([1e-6, 1e8]), label: 'H2/H2O ratio' },
+  reductionEnthalpy: {
+    flag: '--reduction-enthalpy <E>', help: 'vacancy formation (reduction) enthalpy per vacancy, eV', defaultText: 'library value of the support',
+    ...energy([0, 20]), label: 'reduction enthalpy', library: (r) => r.support?.reduction?.enthalpy_eV, when: PRETREATMENT,
+  },
+  reductionEntropy: {
+    flag: '--reduction-entropy <S>', help: 'reduction entropy per vacancy, in k_B', defaultText: 'library value of the support',
+    ...plain([-100, 100]), unit: 'k_B', label: 'reduction entropy', library: (r) => r.support?.reduction?.entropy_kB, when: PRETREATMENT,
+  },
+  oxygenSites: {
+    flag: '--oxygen-sites <N>', help: 'oxygen lattice site density (cm^-3 if bare)', defaultText: 'library value of the support',
+    kind: 'quantity', quantity: 'volumeDensity', limits: [1e26, 1e30], label: 'oxygen site density',
+    library: (r) => r.support?.reduction?.oxygenSites_cm3, when: PRETREATMENT,
+  },
+  donors: {
+    flag: '--donors <N>', help: 'donor defect density (cm^-3 if bare)', defaultText: 'library typical density of an n-type support, else 0',
+    kind: 'quantity', quantity: 'volumeDensity', limits: DENSITY_M3, label: 'donor density', library: typicalIf(false),
+    sampling: 'log-uniform', sampledAs: 'donors_m3',
+  },
+  donorType: {
+    flag: '--donor-type <KIND>', help: 'single or double donor', defaultText: 'library donor type, else single', kind: 'choice', choices: ['single', 'double'],
+    fallback: { value: (c) => (hasPretreatment(c) ? 'double' : !c.given('donorLevel') && c.records.support?.donor ? c.records.support.donor.type : 'single') },
+  },
+  donorLevel: {
+    flag: '--donor-level <E>', help: 'donor (0/+) level depth below E_C', defaultText: 'library donor level, else fully ionised', ...energy(LEVEL_EV),
+    label: 'donor level (depth below E_C)', library: (r, c) => libraryDonor(r, c)?.level1_eV,
+    libraryLabel: (r) => `donor level (${r.support!.donor!.label})`, sampling: 'uniform', sampledAs: 'donorLevel1_eV',
+  },
+  donorLevel2: {
+    flag: '--donor-level2 <E>', help: 'double donor (+/2+) level depth below E_C', defaultText: 'library donor level, else fully ionised',
+    ...energy(LEVEL_EV), label: 'donor level 2 (depth below E_C)', library: (r, c) => libraryDonor(r, c)?.level2_eV,
+    libraryLabel: (r) => `donor level 2 (${r.support!.donor!.label})`,
+    when: { test: (c) => c.value('donorType') === 'double' && (c.given('donorLevel') || !c.given('donorLevel2')), text: 'with --donor-level and --donor-type double' },
+  },
+  acceptors: {
+    flag: '--acceptors <N>', help: 'acceptor density (cm^-3 if bare)', defaultText: 'library typical density of a p-type support, else 0',
+    kind: 'quantity', quantity: 'volumeDensity', limits: DENSITY_M3, label: 'acceptor density', library: typicalIf(true),
+  },
+  acceptorLevel: {
+    flag: '--acceptor-level <E>', help: 'acceptor level height above E_V', defaultText: 'library acceptor level, else fully ionised', ...energy(LEVEL_EV),
+    label: 'acceptor level (height above E_V)', library: (r, c) => (positive(c, 'acceptors') ? r.support?.acceptor?.level_eV : undefined),
+    libraryLabel: (r) => `acceptor level (${r.support!.acceptor!.label})`,
+  },
+  barrierModel: { flag: '--barrier-model <MODEL>', help: 'barrier model', defaultText: 'ideal', kind: 'choice', choices: ['ideal', 'pinned', 'given'], fallback: { value: 'ideal' } },
+  pinningFactor: {
+    flag: '--pinning-factor <S>', help: 'pinning factor S', defaultText: 'library value, else empirical from the optical permittivity',
+    ...plain([0, 1]), label: 'pinning factor', library: (r) => r.support?.pinningFactor,
+    when: { test: (c) => c.value('barrierModel') === 'pinned', text: 'with --barrier-model pinned' },
+  },
+  neutralLevel: {
+    flag: '--neutral-level <E>', help: 'charge-neutrality level below vacuum, eV', defaultText: 'library value of the support',
+    ...energy([0, 12]), unit: 'eV below vacuum', label: 'charge-neutrality level', library: (r) => r.support?.neutralLevel_eV,
+    when: { test: (c) => c.value('barrierModel') === 'pinned', text: 'with --barrier-model pinned' },
+  },
+  barrier: {
+    flag: '--barrier <E>', help: 'measured barrier for the majority carrier', ...energy([-5, 12]), label: 'barrier (given)',
+    when: { test: (c) => c.value('barrierModel') === 'given', text: 'with --barrier-model given' },
+  },
+  geometry: {
+    flag: '--geometry <KIND>', help: 'planar contact, isolated hemisphere, or particle array', defaultText: 'planar', kind: 'choice',
+    choices: ['planar', 'hemisphere', 'array'], fallback: { value: 'planar' },
+  },
+  particleDiameter: {
+    flag: '--particle-diameter <D>', help: 'particle diameter (nm if bare)', defaultText: '2 nm',
+    kind: 'quantity', quantity: 'length', limits: [0.2e-9, 1000e-9], label: 'particle diameter', fallback: { value: 2e-9 },
+  },
+  particleDensity: {
+    flag: '--particle-density <N>', help: 'particles per area (cm^-2 if bare)', kind: 'quantity', quantity: 'arealDensity', limits: [1e10, 1e19],
+    label: 'particle density', when: { test: (c) => c.value('geometry') === 'array', text: 'with --geometry array' },
+  },
+  supportThickness: {
+    flag: '--support-thickness <L>', help: 'support grain thickness (nm if bare)', defaultText: 'semi-infinite',
+    kind: 'quantity', quantity: 'length', limits: [0.5e-9, 1e-3], label: 'support thickness',
+  },
+  statistics: {
+    flag: '--statistics <KIND>', help: 'carrier statistics', defaultText: 'fermi-dirac', kind: 'choice', choices: ['fermi-dirac', 'boltzmann'],
+    fallback: { value: 'fermi-dirac' },
+  },
+  refinement: { flag: '--refinement <F>', help: 'mesh refinement factor', defaultText: '1', ...plain([0.25, 16]), fallback: { value: 1 } },
+  uncertainty: {
+    flag: '--uncertainty <N>', help: 'Monte Carlo samples over published input ranges', defaultText: '0 (off)', kind: 'integer', limits: [0, 100000],
+    fallback: { value: 0 },
+  },
+  seed: {
+    flag: '--seed <S>', help: 'seed for --uncertainty', defaultText: '1', kind: 'integer', limits: [0, 4294967295], fallback: { value: 1 },
+    when: { test: (c) => positive(c, 'uncertainty'), text: 'with --uncertainty N > 0' },
+  },
+};
+
+/** Every input, in resolution order. */
+export const PARAMETERS: readonly ParameterRow[] = Object.freeze(
+  (Object.keys(ROWS) as OptionName[]).map((option) => Object.freeze({ option, ...ROWS[option] })),
+);
+
+const BY_OPTION = new Map<string, ParameterRow>(PARAMETERS.map((p) => [p.option, p]));
+const BY_SAMPLE = new Map<SampledField, ParameterRow>(PARAMETERS.filter((p) => p.sampledAs).map((p) => [p.sampledAs!, p]));
+
+export const OPTION_NAMES: readonly OptionName[] = PARAMETERS.map((p) => p.option);
+
+/** The row of an option name, or undefined for an unknown name. */
+export function parameterOf(option: string): ParameterRow | undefined {
+  return BY_OPTION.get(option);
+}
+
+/** The row of an option that exists (the compiler checked the name). */
+export function row(option: OptionName): ParameterRow {
+  return BY_OPTION.get(option)!;
+}
+
+/** The row an uncertainty sample field comes from. */
+export function rowOfSample(field: SampledField): ParameterRow {
+  return BY_SAMPLE.get(field)!;
+}
+
+/** '--donors' from '--donors <N>'. */
+export function flagName(p: ParameterRow): string {
+  return p.flag.split(' ')[0]!;
+}
+
+/** Help text with the documented default. */
+export function helpText(p: ParameterRow): string {
+  return p.defaultText === undefined ? p.help : `${p.help} (default: ${p.defaultText})`;
+}
+
+/** Display unit of a row (provenance and messages) and the factor from SI to it. */
+export function displayUnitOf(p: ParameterRow): { unit: string; perSi: number } {
+  const d = p.quantity ? DISPLAY_UNITS[p.quantity] : DISPLAY_UNITS.dimensionless;
+  return { unit: p.unit ?? d.unit, perSi: d.perSi };
+}
+
+/** SI value -> display value, rounded to 12 significant digits so that 2e-9 m shows as 2 nm. */
+export function toDisplay(p: ParameterRow, si: number): number {
+  return Number((si * displayUnitOf(p).perSi).toPrecision(12));
+}
+
+/** Library value (display unit) -> SI. */
+export function fromDisplay(p: ParameterRow, display: number): number {
+  return display / displayUnitOf(p).perSi;
+}
+
+// names close to a typo, shared by the option check and the study-file messages
+function editDistance(a: string, b: string): number {
+  const line = Array.from({ length: b.length + 1 }, (_, j) => j);
+  for (let i = 1; i <= a.length; i++) {
+    let diagonal = line[0]!;
+    line[0] = i;
+    for (let j = 1; j <= b.length; j++) {
+      const above = line[j]!;
+      line[j] = Math.min(line[j]! + 1, line[j - 1]! + 1, diagonal + (a[i - 1] === b[j - 1] ? 0 : 1));
+      diagonal = above;
+    }
+  }
+  return line[b.length]!;
+}
+
+/** The closest known name, if it is close enough to be a likely typo. */
+export function closestName(name: string, known: readonly string[]): string | undefined {
+  const lower = name.toLowerCase();
+  let best: string | undefined;
+  let bestDistance = Infinity;
+  for (const k of known) {
+    const d = editDistance(lower, k.toLowerCase());
+    if (d < bestDistance) {
+      best = k;
+      bestDistance = d;
+    }
+  }
+  return best !== undefined && bestDistance <= Math.max(1, Math.floor(name.length / 3)) ? best : undefined;
+}
