@@ -34,3 +34,8 @@ export function requireInRange(field: string, value: number, min: number, max: n
 function formatValue(v: number): string {
   return Number.isFinite(v) ? String(Number(v.toPrecision(6))) : String(v);
 }
+
+/** A failure a batch (screen row, sweep point, uncertainty sample) records and goes on from; anything else is a bug. */
+export function isModelFailure(error: unknown): error is InputError | ConvergenceError {
+  return error instanceof InputError || error instanceof ConvergenceError;
+}

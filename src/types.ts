@@ -27,7 +27,8 @@ export interface Profile {
 }
 
 export interface SolverInfo {
-  converged: boolean;
+  /** always true: a solve that does not converge throws ConvergenceError instead of returning */
+  converged: true;
   iterations: number;
   meshPoints: number;
   domainLength_nm: number;

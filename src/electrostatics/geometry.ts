@@ -11,6 +11,8 @@ export interface CrossSection {
   volume(xa: number, xb: number): number;
   /** thickness W of a layer next to the interface with the given volume, m (inverse of volume(0, W)) */
   depthHoldingVolume(volume_m3: number): number;
+  /** interface area belonging to one particle, m^2, when it differs from interfaceArea_m2 (planar: its footprint) */
+  readonly particleFootprint_m2?: number;
 }
 
 /** Planar contact, per m^2 of interface: A = 1. */

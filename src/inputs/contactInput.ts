@@ -5,7 +5,7 @@ import type { InputProvenance, MaterialsLibrary, PropertyValue } from '../materi
 import { findMetal, findSupport, provenanceOf, resolveLibrary, formatCitation } from '../materials/load.js';
 import { estimateElectronAffinity } from '../materials/estimate.js';
 import { parseQuantity } from './units.js';
-import { frozenInDonorDensity, oxygenPressureFromHydrogenWater, vacancyDonorDensity, HYDROGEN_CAUTIONS } from './pretreatment.js';
+import { frozenInDonorDensity, oxygenPressureFromHydrogenWater, vacancyDonorDensity } from './pretreatment.js';
 import {
   PARAMETERS,
   OPTION_NAMES,
@@ -103,7 +103,7 @@ class Resolution implements RowContext {
   }
 }
 
-/** Inputs that are computed from others when neither the user nor the library gives them (tried before fallbacks). */
+/** Inputs computed from others when the user does not give them (tried before the library value). */
 const DERIVED: Partial<Record<OptionName, (c: Resolution) => number | undefined>> = {
   electronAffinity: electronAffinityFromFormula,
   donors: (c) => (hasPretreatment(c) ? pretreatmentDonors(c) : undefined),
@@ -169,7 +169,7 @@ function textOf(p: ParameterRow, raw: unknown): string {
   return raw.trim();
 }
 
-/** One row: the user's value, else the library's, else a derived one, else the fallback; with provenance. */
+/** One row: the user's value, else a derived one, else the library's, else the fallback; with provenance. */
 function resolveRow(c: Resolution, p: ParameterRow): void {
   const raw = c.options[p.option];
   if (p.kind === 'materials' || p.option === 'metal' || p.option === 'support') return;
@@ -181,14 +181,14 @@ function resolveRow(c: Resolution, p: ParameterRow): void {
     c.values.set(p.option, userValue(c, p, raw));
     return;
   }
-  const pv = p.library?.(c.records, c);
-  if (pv !== undefined) {
-    c.values.set(p.option, libraryValue(c, p, pv));
-    return;
-  }
   const derived = DERIVED[p.option]?.(c);
   if (derived !== undefined) {
     c.values.set(p.option, checkLimits(p, derived));
+    return;
+  }
+  const pv = p.library?.(c.records, c);
+  if (pv !== undefined) {
+    c.values.set(p.option, libraryValue(c, p, pv));
     return;
   }
   if (p.fallback === undefined) return;
@@ -292,7 +292,6 @@ function pretreatmentInfo(c: Resolution): PretreatmentInfo {
       ...(ref !== undefined ? { citation: formatCitation(ref) } : {}),
       note: `water-formation equilibrium, Delta_f G(H2O,g) = ${po2.waterGibbsFormation_kJ_mol.toFixed(2)} kJ/mol at ${equilibrationTemperature_K} K`,
     });
-    c.cautions.push(...HYDROGEN_CAUTIONS);
   }
   const name = c.records.support?.name ?? 'this support';
   const vacancyInput = {

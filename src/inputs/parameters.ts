@@ -152,15 +152,15 @@ export interface ParameterRow {
   identifies?: 'metal' | 'support';
 }
 
-/** Display unit of each quantity kind (provenance, messages, library values) and its size in SI. */
-export const DISPLAY_UNITS: Readonly<Record<QuantityKind, { unit: string; si: string; perSi: number }>> = {
-  energy: { unit: 'eV', si: 'eV', perSi: 1 },
-  volumeDensity: { unit: 'cm^-3', si: 'm^-3', perSi: 1e-6 },
-  arealDensity: { unit: 'cm^-2', si: 'm^-2', perSi: 1e-4 },
-  temperature: { unit: 'K', si: 'K', perSi: 1 },
-  length: { unit: 'nm', si: 'm', perSi: 1e9 },
-  pressure: { unit: 'bar', si: 'Pa', perSi: 1e-5 },
-  dimensionless: { unit: '', si: '', perSi: 1 },
+/** Display unit of each quantity kind (provenance, messages, library values) and the factors to and from SI. */
+export const DISPLAY_UNITS: Readonly<Record<QuantityKind, { unit: string; si: string; toSi: number; fromSi: number }>> = {
+  energy: { unit: 'eV', si: 'eV', toSi: 1, fromSi: 1 },
+  volumeDensity: { unit: 'cm^-3', si: 'm^-3', toSi: 1e6, fromSi: 1e-6 },
+  arealDensity: { unit: 'cm^-2', si: 'm^-2', toSi: 1e4, fromSi: 1e-4 },
+  temperature: { unit: 'K', si: 'K', toSi: 1, fromSi: 1 },
+  length: { unit: 'nm', si: 'm', toSi: 1e-9, fromSi: 1e9 },
+  pressure: { unit: 'bar', si: 'Pa', toSi: 1e5, fromSi: 1e-5 },
+  dimensionless: { unit: '', si: '', toSi: 1, fromSi: 1 },
 };
 
 type RowSpec = Omit<ParameterRow, 'option'>;
@@ -374,20 +374,20 @@ export function helpText(p: ParameterRow): string {
   return p.defaultText === undefined ? p.help : `${p.help} (default: ${p.defaultText})`;
 }
 
-/** Display unit of a row (provenance and messages) and the factor from SI to it. */
-export function displayUnitOf(p: ParameterRow): { unit: string; perSi: number } {
+/** Display unit of a row (provenance and messages) and its factors to and from SI. */
+export function displayUnitOf(p: ParameterRow): { unit: string; toSi: number; fromSi: number } {
   const d = p.quantity ? DISPLAY_UNITS[p.quantity] : DISPLAY_UNITS.dimensionless;
-  return { unit: p.unit ?? d.unit, perSi: d.perSi };
+  return { unit: p.unit ?? d.unit, toSi: d.toSi, fromSi: d.fromSi };
 }
 
 /** SI value -> display value, rounded to 12 significant digits so that 2e-9 m shows as 2 nm. */
 export function toDisplay(p: ParameterRow, si: number): number {
-  return Number((si * displayUnitOf(p).perSi).toPrecision(12));
+  return Number((si * displayUnitOf(p).fromSi).toPrecision(12));
 }
 
 /** Library value (display unit) -> SI. */
 export function fromDisplay(p: ParameterRow, display: number): number {
-  return display / displayUnitOf(p).perSi;
+  return display * displayUnitOf(p).toSi;
 }
 
 // names close to a typo, shared by the option check and the study-file messages

@@ -7,6 +7,7 @@ import { Q_ELEMENTARY_C, thermalEnergy_eV } from '../constants.js';
 import { InputError } from '../errors.js';
 import type { InputProvenance } from '../materials/types.js';
 import type { ContactResult, FlowDirection } from '../types.js';
+import { reportCautions } from './cautions.js';
 import { escapeHtml, escapeMarkdownCell, escapeMarkdownText, isSafeBaseName } from './escape.js';
 import { bandDiagramSpec, chargeFieldSpec, prefersLogDepth, type Cell, type Row } from './figures.js';
 import { svgForInline, writeFigure } from './render.js';
@@ -69,16 +70,6 @@ export interface ReportPaths {
 }
 
 // ---------------------------------------------------------------- fixed text
-
-export const HYDROGEN_CAUTION =
-  'Reductions in hydrogen and any work with H2/O2 or H2/air mixtures are hazardous: hydrogen is flammable ' +
-  'over a wide concentration range and such mixtures can ignite or explode. Check the flammability and ' +
-  'explosion limits for your conditions, follow local codes, site safety rules and licensed practice, and do ' +
-  'not use this report for safety decisions.';
-
-export const SCREENING_CAUTION =
-  'All numbers are screening estimates from a simplified continuum model with literature-typical inputs; ' +
-  'they are not measurements. Confirm important conclusions experimentally.';
 
 /** Modelling assumptions of one contact calculation, in words. */
 export function contactAssumptions(result: ContactResult): string[] {
@@ -254,7 +245,7 @@ export function contactResultRows(result: ContactResult): ResultRow[] {
   }
 
   const s = result.solver;
-  add('solver', 'converged / iterations', `${s.converged ? 'yes' : 'NO'} / ${s.iterations}`);
+  add('solver', 'Newton iterations', String(s.iterations));
   add('solver', 'mesh points / domain', `${s.meshPoints} / ${formatQuantity(s.domainLength_nm, 'nm')}`);
   add('solver', 'charge error estimate (Richardson, relative)', formatNumber(s.chargeErrorEstimate));
   return rows;
@@ -277,13 +268,11 @@ export function inputRows(inputs: readonly InputProvenance[]): string[][] {
 const INPUT_HEADERS = ['field', 'value', 'unit', 'range', 'origin', 'citation', 'note', 'check'];
 
 function contactWarnings(result: ContactResult): string[] {
-  const out = result.warnings.map((w) => `[${w.code}] ${w.message}`);
-  if (!result.solver.converged) out.unshift('[not-converged] the solver did not report convergence; treat all numbers with suspicion');
-  return out;
+  return result.warnings.map((w) => `[${w.code}] ${w.message}`);
 }
 
 function allCautions(extra: readonly string[]): string[] {
-  return [...extra, HYDROGEN_CAUTION, SCREENING_CAUTION];
+  return reportCautions(extra);
 }
 
 // ---------------------------------------------------------------- page assembly

@@ -1,47 +1,10 @@
-// Terminal summary of one contact, plus the number/wording helpers shared by figures and reports.
+// Terminal summary of one contact, plus the wording helpers shared by figures and reports (numbers: format.ts).
 import type { ContactResult, FlowDirection } from '../types.js';
 import { thermalEnergy_eV } from '../constants.js';
 import { stripControl } from './escape.js';
+import { formatNumber, formatSigned, formatQuantity, formatLogQuantity } from './format.js';
 
-/**
- * Format a number with `sig` significant digits: plain notation for 1e-3 <= |v| < 1e5, otherwise
- * exponential ("1.23e18"). null/undefined give "n/a"; NaN and infinities are spelled out.
- */
-export function formatNumber(value: number | null | undefined, sig = 3): string {
-  if (value === null || value === undefined) return 'n/a';
-  if (Number.isNaN(value)) return 'NaN';
-  if (!Number.isFinite(value)) return value > 0 ? 'inf' : '-inf';
-  if (value === 0) return '0';
-  const abs = Math.abs(value);
-  if (abs >= 1e5 || abs < 1e-3) {
-    const [mantissa = '', exponent = ''] = value.toExponential(Math.max(0, sig - 1)).split('e');
-    const trimmed = mantissa.includes('.') ? mantissa.replace(/0+$/, '').replace(/\.$/, '') : mantissa;
-    return `${trimmed}e${exponent.replace('+', '')}`;
-  }
-  return String(Number(value.toPrecision(sig)));
-}
-
-/** Like formatNumber but with an explicit sign for positive values ("+0.42"). */
-export function formatSigned(value: number | null | undefined, sig = 3): string {
-  const text = formatNumber(value, sig);
-  return value !== null && value !== undefined && value > 0 ? `+${text}` : text;
-}
-
-/** Number with a unit, or "n/a" without the unit. */
-export function formatQuantity(value: number | null | undefined, unit: string, sig = 3): string {
-  const text = formatNumber(value, sig);
-  return text === 'n/a' || unit === '' ? text : `${text} ${unit}`;
-}
-
-/**
- * A quantity that may underflow or overflow a double, given with its log10: the plain value when it
- * is a positive finite number, otherwise "10^<log10>".
- */
-export function formatLogQuantity(value: number | null, log10: number, unit: string, sig = 3): string {
-  if (value !== null && Number.isFinite(value) && value > 0) return formatQuantity(value, unit, sig);
-  if (!Number.isFinite(log10)) return formatQuantity(value, unit, sig);
-  return `10^${formatNumber(log10, sig)}${unit ? ` ${unit}` : ''}`;
-}
+export { formatNumber, formatSigned, formatQuantity, formatLogQuantity } from './format.js';
 
 /** The flow direction in words (electrons move in the stated direction until the Fermi levels align). */
 export function directionInWords(direction: FlowDirection): string {
@@ -144,17 +107,13 @@ export function formatContactSummary(result: ContactResult, opts: SummaryOptions
   const support = stripControl(result.support);
   const lines: string[] = [];
   lines.push(st.bold(`${metal} | ${support} at ${formatNumber(result.temperature_K, 4)} K`));
-  lines.push(
-    `  ${result.geometry} geometry, ${result.statistics} statistics, ${result.barrierModel} barrier model` +
-      (result.solver.converged ? '' : ' (solver NOT converged)'),
-  );
+  lines.push(`  ${result.geometry} geometry, ${result.statistics} statistics, ${result.barrierModel} barrier model`);
   lines.push('');
   lines.push(...alignRows(keyResultRows(result)));
   const warnings = result.warnings;
-  if (warnings.length > 0 || !result.solver.converged) {
+  if (warnings.length > 0) {
     lines.push('');
     lines.push(st.warn(st.bold('Warnings')));
-    if (!result.solver.converged) lines.push(st.warn('  - [not-converged] the solver did not report convergence'));
     for (const w of warnings) lines.push(st.warn(`  - [${stripControl(w.code)}] ${stripControl(w.message)}`));
   }
   if (result.cautions.length > 0) {

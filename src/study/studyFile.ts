@@ -20,7 +20,7 @@ import { dirname, extname, isAbsolute, resolve } from 'node:path';
 import { parse as parseYaml } from 'yaml';
 import { z, type ZodErrorMap, type ZodIssue } from 'zod';
 import { InputError } from '../errors.js';
-import type { ContactOptions } from '../inputs/contactInput.js';
+import { PARAMETERS, closestName, type ContactOptions, type ParameterRow } from '../inputs/parameters.js';
 import { defaultUnitOf, parseQuantity, type QuantityKind } from '../inputs/units.js';
 import type { ContactResult } from '../types.js';
 
@@ -39,47 +39,26 @@ export type FieldSpec =
   | { kind: 'choice'; choices: readonly string[] }
   | { kind: 'materials' };
 
-/** Every ContactOptions field (the Record type makes the compiler check the list stays complete). */
-export const CONTACT_FIELDS: Readonly<Record<keyof ContactOptions, FieldSpec>> = {
-  metal: { kind: 'text', categorical: true },
-  workFunction: { kind: 'quantity', quantity: 'energy' },
-  workFunctionShift: { kind: 'quantity', quantity: 'energy' },
-  workFunctionShiftSource: { kind: 'text', categorical: false },
-  support: { kind: 'text', categorical: true },
-  supportFormula: { kind: 'text', categorical: true },
-  electronAffinity: { kind: 'quantity', quantity: 'energy' },
-  bandGap: { kind: 'quantity', quantity: 'energy' },
-  permittivity: { kind: 'quantity', quantity: 'dimensionless' },
-  opticalPermittivity: { kind: 'quantity', quantity: 'dimensionless' },
-  electronMass: { kind: 'quantity', quantity: 'dimensionless' },
-  holeMass: { kind: 'quantity', quantity: 'dimensionless' },
-  donors: { kind: 'quantity', quantity: 'volumeDensity' },
-  donorLevel: { kind: 'quantity', quantity: 'energy' },
-  donorLevel2: { kind: 'quantity', quantity: 'energy' },
-  donorType: { kind: 'choice', choices: ['single', 'double'] },
-  acceptors: { kind: 'quantity', quantity: 'volumeDensity' },
-  acceptorLevel: { kind: 'quantity', quantity: 'energy' },
-  temperature: { kind: 'quantity', quantity: 'temperature' },
-  barrierModel: { kind: 'choice', choices: ['ideal', 'pinned', 'given'] },
-  pinningFactor: { kind: 'quantity', quantity: 'dimensionless' },
-  neutralLevel: { kind: 'quantity', quantity: 'energy' },
-  barrier: { kind: 'quantity', quantity: 'energy' },
-  geometry: { kind: 'choice', choices: ['planar', 'hemisphere', 'array'] },
-  particleDiameter: { kind: 'quantity', quantity: 'length' },
-  particleDensity: { kind: 'quantity', quantity: 'arealDensity' },
-  supportThickness: { kind: 'quantity', quantity: 'length' },
-  statistics: { kind: 'choice', choices: ['fermi-dirac', 'boltzmann'] },
-  reductionTemperature: { kind: 'quantity', quantity: 'temperature' },
-  oxygenPressure: { kind: 'quantity', quantity: 'pressure' },
-  hydrogenToWater: { kind: 'quantity', quantity: 'dimensionless' },
-  reductionEnthalpy: { kind: 'quantity', quantity: 'energy' },
-  reductionEntropy: { kind: 'quantity', quantity: 'dimensionless' },
-  oxygenSites: { kind: 'quantity', quantity: 'volumeDensity' },
-  materials: { kind: 'materials' },
-  refinement: { kind: 'number' },
-  uncertainty: { kind: 'quantity', quantity: 'dimensionless' },
-  seed: { kind: 'quantity', quantity: 'dimensionless' },
-};
+/** The study field of a parameter-table row. */
+function fieldSpecOfRow(p: ParameterRow): FieldSpec {
+  switch (p.kind) {
+    case 'quantity':
+      return { kind: 'quantity', quantity: p.quantity! };
+    case 'integer':
+      return { kind: 'quantity', quantity: 'dimensionless' };
+    case 'choice':
+      return { kind: 'choice', choices: p.choices! };
+    case 'text':
+      return { kind: 'text', categorical: p.categorical === true };
+    case 'materials':
+      return { kind: 'materials' };
+  }
+}
+
+/** Every ContactOptions field, generated from the parameter table. */
+export const CONTACT_FIELDS: Readonly<Record<keyof ContactOptions, FieldSpec>> = Object.fromEntries(
+  PARAMETERS.map((p) => [p.option, fieldSpecOfRow(p)]),
+) as Record<keyof ContactOptions, FieldSpec>;
 
 const FIELD_NAMES = Object.keys(CONTACT_FIELDS) as (keyof ContactOptions)[];
 
@@ -363,34 +342,7 @@ function fail(label: string, path: readonly (string | number)[] | string, messag
   throw new InputError(where ? `${label}: ${where}` : label, oneLine(message));
 }
 
-function editDistance(a: string, b: string): number {
-  const row = Array.from({ length: b.length + 1 }, (_, j) => j);
-  for (let i = 1; i <= a.length; i++) {
-    let diagonal = row[0]!;
-    row[0] = i;
-    for (let j = 1; j <= b.length; j++) {
-      const above = row[j]!;
-      row[j] = Math.min(row[j]! + 1, row[j - 1]! + 1, diagonal + (a[i - 1] === b[j - 1] ? 0 : 1));
-      diagonal = above;
-    }
-  }
-  return row[b.length]!;
-}
-
-/** The closest known name, if it is close enough to be a likely typo. */
-export function closestName(name: string, known: readonly string[]): string | undefined {
-  const lower = name.toLowerCase();
-  let best: string | undefined;
-  let bestDistance = Infinity;
-  for (const k of known) {
-    const d = editDistance(lower, k.toLowerCase());
-    if (d < bestDistance) {
-      best = k;
-      bestDistance = d;
-    }
-  }
-  return best !== undefined && bestDistance <= Math.max(1, Math.floor(name.length / 3)) ? best : undefined;
-}
+export { closestName };
 
 function didYouMean(name: string, known: readonly string[]): string {
   const guess = closestName(name, known);

@@ -1,0 +1,175 @@
+// The only place where the SI physics of one contact becomes the display units of the JSON contract
+// (src/types.ts: nm, cm^-3, A/cm^2; add fields freely, never rename).
+import { Q_ELEMENTARY_C } from './constants.js';
+import type { BulkState, ChargeModel } from './bulk/equilibrium.js';
+import { imageForceLowering_eV, type BarrierResult } from './barrier/barrier.js';
+import type { CrossSection } from './electrostatics/geometry.js';
+import type { PoissonSolution } from './electrostatics/poisson.js';
+import type { ParticleAtomCount, ChargingSummary } from './derived/particle.js';
+import type { EquilibrationTime, ThermionicExchange } from './derived/exchange.js';
+import type { ResolvedContact } from './inputs/contactInput.js';
+import { contactCautions } from './output/cautions.js';
+import type { ContactResult, ExchangeInfo, FlowDirection, ParticleInfo, Profile, Warning } from './types.js';
+
+export interface ExchangeKinetics {
+  current: ThermionicExchange;
+  time: EquilibrationTime;
+  slow: boolean;
+}
+
+/** One solved contact and everything derived from it, SI (energies in eV). */
+export interface ContactPhysics {
+  r: ResolvedContact;
+  model: ChargeModel;
+  bulk: BulkState;
+  barrier: BarrierResult;
+  nType: boolean;
+  kT_eV: number;
+  bandBending_eV: number;
+  geometry: CrossSection;
+  solution: PoissonSolution;
+  spaceCharge_C_per_m2: number;
+  interfaceField_V_per_m: number;
+  electronsPerParticle: number;
+  chargeEquivalentWidth_m: number | null;
+  depletionWidthApprox_m: number | null;
+  direction: FlowDirection;
+  depth90_m: number;
+  charging: ChargingSummary;
+  atoms: ParticleAtomCount | null;
+  meanSpacing_m: number | null;
+  zonesOverlap: boolean | null;
+  exchange: ExchangeKinetics | null;
+}
+
+const NM_PER_M = 1e9;
+const CM3_PER_M3 = 1e-6; // a density per m^3 times 1e-6 is per cm^3
+const CM2_PER_M2 = 1e-4;
+
+/** log10 that stays finite (a time beyond a double is reported as 10^+-308). */
+export function finiteLog10(log10: number): number {
+  return Number.isFinite(log10) ? log10 : log10 > 0 ? 308 : -308;
+}
+
+const nmOrNull = (x_m: number | null): number | null => (x_m === null ? null : x_m * NM_PER_M);
+
+export function toContactResult(p: ContactPhysics, warnings: Warning[]): ContactResult {
+  const { r, bulk, barrier, solution } = p;
+  const s = r.support;
+  return {
+    metal: r.metal.name,
+    support: s.name,
+    temperature_K: r.temperature_K,
+    geometry: r.geometry,
+    statistics: r.statistics,
+    barrierModel: r.barrierModel,
+    barrierCarrier: p.nType ? 'electron' : 'hole',
+    barrierHeight_eV: barrier.barrierHeight_eV,
+    electronBarrier_eV: barrier.electronBarrier_eV,
+    metalWorkFunction_eV: r.metal.workFunction_eV,
+    bandBending_eV: p.bandBending_eV,
+    fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV,
+    // support work function Phi_s = chi + (E_C - E_F)_bulk
+    supportWorkFunction_eV: s.electronAffinity_eV + bulk.fermiLevelBelowConduction_eV,
+    direction: p.direction,
+    spaceCharge_C_per_m2: p.spaceCharge_C_per_m2,
+    chargeEquivalentWidth_nm: nmOrNull(p.chargeEquivalentWidth_m),
+    depletionWidthApprox_nm: nmOrNull(p.depletionWidthApprox_m),
+    debyeLength_nm: solution.firstIntegral.bulkScreening_m * NM_PER_M,
+    interfaceField_V_per_m: p.interfaceField_V_per_m,
+    imageForceLowering_eV: imageForceLowering_eV(p.interfaceField_V_per_m, s.opticalPermittivity),
+    electronsPerParticle: p.electronsPerParticle,
+    donorDensity_cm3: s.donors_m3 * CM3_PER_M3,
+    acceptorDensity_cm3: s.acceptors_m3 * CM3_PER_M3,
+    pinningFactor: barrier.pinningFactor,
+    chargeDepth90_nm: p.depth90_m * NM_PER_M,
+    supportFullyDepleted: warnings.some((w) => w.code === 'fully-depleted'),
+    bulk: bulkInfo(bulk),
+    particle: particleInfo(p),
+    exchange: exchangeInfo(p.exchange),
+    pretreatment: r.pretreatment,
+    profile: profileOf(p),
+    solver: {
+      converged: true,
+      iterations: solution.iterations,
+      meshPoints: solution.x_m.length,
+      domainLength_nm: solution.domain_m * NM_PER_M,
+      chargeErrorEstimate: solution.chargeErrorEstimate,
+    },
+    warnings,
+    cautions: [...r.cautions, ...contactCautions(r.pretreatment.hydrogenToWater !== null)],
+    inputs: r.inputs,
+  };
+}
+
+function bulkInfo(bulk: BulkState): ContactResult['bulk'] {
+  return {
+    electronDensity_cm3: bulk.electronDensity_m3 * CM3_PER_M3,
+    holeDensity_cm3: bulk.holeDensity_m3 * CM3_PER_M3,
+    ionizedDonors_cm3: bulk.donorCharge_m3 * CM3_PER_M3,
+    ionizedAcceptors_cm3: bulk.ionisedAcceptors_m3 * CM3_PER_M3,
+    conductionDensityOfStates_cm3: bulk.conductionDos_m3 * CM3_PER_M3,
+    valenceDensityOfStates_cm3: bulk.valenceDos_m3 * CM3_PER_M3,
+    intrinsicDensityLog10_cm3: bulk.intrinsicDensityLog10_cm3,
+  };
+}
+
+function particleInfo(p: ContactPhysics): ParticleInfo {
+  return {
+    diameter_nm: p.r.particleDiameter_m * NM_PER_M,
+    atoms: p.atoms?.atoms ?? null,
+    surfaceAtoms: p.atoms?.surfaceAtoms ?? null,
+    dispersion: p.atoms?.dispersion ?? null,
+    electronsPerSurfaceAtom: p.atoms ? p.electronsPerParticle / p.atoms.surfaceAtoms : null,
+    chargingEnergy_eV: p.charging.chargingEnergy_eV,
+    chargingEnergyOverKT: p.charging.chargingEnergyOverKT,
+    particleDensity_cm2: p.r.particleDensity_m2 !== undefined ? p.r.particleDensity_m2 * CM2_PER_M2 : null,
+    meanSpacing_nm: nmOrNull(p.meanSpacing_m),
+    zonesOverlap: p.zonesOverlap,
+  };
+}
+
+function exchangeInfo(e: ExchangeKinetics | null): ExchangeInfo | null {
+  if (e === null) return null;
+  return {
+    richardsonConstant_A_per_cm2_K2: e.current.richardsonConstant_A_per_m2_K2 * CM2_PER_M2,
+    exchangeCurrentDensity_A_per_cm2: e.current.current_A_per_m2 * CM2_PER_M2,
+    exchangeCurrentLog10_A_per_cm2: e.current.log10Current_A_per_m2 - 4,
+    equilibrationTime_s: Number.isFinite(e.time.seconds) ? e.time.seconds : null,
+    equilibrationTimeLog10_s: finiteLog10(e.time.log10Seconds),
+    slow: e.slow,
+  };
+}
+
+/** Band edges, carrier and charge densities and field along the depth, display units. */
+function profileOf(p: ContactPhysics): Profile {
+  const { model, bulk, solution } = p;
+  const kT = p.kT_eV;
+  const x = solution.x_m;
+  const u = solution.u;
+  const n = x.length;
+  const profile: Profile = {
+    x_nm: new Array<number>(n),
+    conductionBand_eV: new Array<number>(n),
+    valenceBand_eV: new Array<number>(n),
+    electronDensity_cm3: new Array<number>(n),
+    holeDensity_cm3: new Array<number>(n),
+    chargeDensity_C_per_m3: new Array<number>(n),
+    field_V_per_m: new Array<number>(n),
+  };
+  for (let i = 0; i < n; i++) {
+    const xi = bulk.reducedFermiLevel - u[i]!;
+    const ec = bulk.fermiLevelBelowConduction_eV + u[i]! * kT;
+    profile.x_nm[i] = x[i]! * NM_PER_M;
+    profile.conductionBand_eV[i] = ec;
+    profile.valenceBand_eV[i] = ec - p.r.support.bandGap_eV;
+    profile.electronDensity_cm3[i] = model.electronDensity(xi) * CM3_PER_M3;
+    profile.holeDensity_cm3[i] = model.holeDensity(xi) * CM3_PER_M3;
+    profile.chargeDensity_C_per_m3[i] = Q_ELEMENTARY_C * solution.netCharge_m3[i]!;
+    // E = (kT/q) du/dx: centred differences inside, Gauss's law at the interface, one-sided at the far end
+    if (i === 0) profile.field_V_per_m[i] = p.interfaceField_V_per_m;
+    else if (i === n - 1) profile.field_V_per_m[i] = kT * ((u[i]! - u[i - 1]!) / (x[i]! - x[i - 1]!));
+    else profile.field_V_per_m[i] = kT * ((u[i + 1]! - u[i - 1]!) / (x[i + 1]! - x[i - 1]!));
+  }
+  return profile;
+}
