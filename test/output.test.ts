@@ -7,7 +7,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { TopLevelSpec } from 'vega-lite';
 import { InputError } from '../src/errors.js';
-import { contactCautions, HYDROGEN_CAUTIONS } from '../src/output/cautions.js';
+import { contactCautions, HYDROGEN_CAUTIONS, SCREENING_CAUTION } from '../src/output/cautions.js';
 import type { ContactResult } from '../src/types.js';
 import { escapeHtml, escapeMarkdownCell, stripControl } from '../src/output/escape.js';
 import {
@@ -435,8 +435,8 @@ describe('contact report', () => {
     r.cautions = contactCautions(true);
     const out = await writeContactReport(join(work, 'hydrogen'), r, { title: 'h' });
     const html = await readFile(out.htmlPath, 'utf8');
-    expect(html.split(HYDROGEN_CAUTIONS[0]!).length - 1).toBe(1);
-    expect(html.split('screening estimates').length - 1).toBe(1);
+    expect(html.split(escapeHtml(HYDROGEN_CAUTIONS[0]!)).length - 1).toBe(1);
+    expect(html.split(escapeHtml(SCREENING_CAUTION)).length - 1).toBe(1);
   });
 
   it('shows uncertainty and a slow exchange given as a log', async () => {
