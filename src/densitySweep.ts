@@ -7,6 +7,8 @@ import { solveContact, type ContactOptions } from './contact.js';
 import { linePlotSpec, type Row } from './output/figures.js';
 import { renderSvg, writeFigure, svgForInline } from './output/render.js';
 import { escapeHtml } from './output/escape.js';
+import { isModelFailure } from './errors.js';
+import { formatPrecision } from './output/format.js';
 
 export const DEFAULT_DENSITIES_CM2 = [1e10, 2e10, 5e10, 1e11, 2e11, 5e11, 1e12, 2e12, 5e12, 1e13];
 
@@ -34,7 +36,7 @@ export function sweepParticleDensity(options: ContactOptions, densities_cm2: rea
         error: '',
       };
     } catch (error) {
-      if (!(error instanceof Error)) throw error;
+      if (!isModelFailure(error)) throw error;
       return { particleDensity_cm2: density, electronsPerParticle: null, meanSpacing_nm: null, chargeDepth90_nm: null, zonesOverlap: null, error: error.message };
     }
   });
@@ -54,7 +56,7 @@ export async function densitySweepSection(dir: string, rows: DensitySweepRow[], 
   });
   const svg = await renderSvg(spec);
   await writeFigure(dir, 'density-sweep', spec);
-  const cell = (v: number | null, digits: number, exp = false): string => (v === null ? '' : exp ? v.toExponential(0) : v.toPrecision(digits));
+  const cell = (v: number | null, digits: number, exp = false): string => (v === null ? '' : exp ? v.toExponential(0) : formatPrecision(v, digits));
   const table = rows
     .map(
       (r) =>

@@ -4,7 +4,8 @@ import { resolveLibrary } from './materials/load.js';
 import { stringify } from 'csv-stringify/sync';
 import type { MaterialsLibrary } from './materials/types.js';
 import type { ContactResult } from './types.js';
-import { InputError } from './errors.js';
+import { InputError, isModelFailure } from './errors.js';
+import { flagName, parameterOf } from './inputs/parameters.js';
 import { heatmapSpec } from './output/figures.js';
 import { writeScreenReport, type ReportPaths } from './output/report.js';
 
@@ -32,6 +33,8 @@ export interface ScreenOptions {
   /** conditions shared by every pair (metal/support are set per pair) */
   conditions: Omit<ContactOptions, 'metal' | 'support' | 'materials'>;
   materials?: MaterialsLibrary | string[];
+  /** apply material properties in `conditions` (work function, band gap, ...) to every pair; refused otherwise */
+  overrideMaterials?: boolean;
   onProgress?: (done: number, total: number) => void;
 }
 
@@ -69,12 +72,29 @@ function rowOf(metal: string, support: string, r: ContactResult | null, error: s
   };
 }
 
-/** Solve every pair; a failing pair is a row with its error, the screen goes on. */
+/** Conditions that are a property of one named material would relabel every row: refuse them unless asked. */
+function checkConditions(options: ScreenOptions): void {
+  if (options.overrideMaterials === true) return;
+  for (const option of Object.keys(options.conditions)) {
+    const p = parameterOf(option);
+    if (p?.identifies !== undefined) {
+      throw new InputError(
+        flagName(p),
+        `would apply one value to every ${p.identifies} of the screen while the rows keep the library names`,
+        'leave it out, or pass --override-materials (overrideMaterials: true)',
+      );
+    }
+  }
+}
+
+/** Solve every pair; a pair that fails with a model or input error is a row with its error, the screen goes on. */
 export function runScreen(options: ScreenOptions): ScreenRow[] {
   if (options.metals.length === 0) throw new InputError('--metals', 'no metals given', 'a comma-separated list, or "all"');
   if (options.supports.length === 0) throw new InputError('--supports', 'no supports given', 'a comma-separated list, or "all"');
+  checkConditions(options);
   const library = resolveLibrary(options.materials);
   const rows: ScreenRow[] = [];
+  const errors: InputError[] = [];
   const total = options.metals.length * options.supports.length;
   for (const metal of options.metals) {
     for (const support of options.supports) {
@@ -83,13 +103,16 @@ export function runScreen(options: ScreenOptions): ScreenRow[] {
       try {
         result = solveContact({ ...options.conditions, metal, support, materials: library });
       } catch (e) {
-        if (!(e instanceof Error)) throw e;
+        if (!isModelFailure(e)) throw e;
+        if (e instanceof InputError) errors.push(e);
         error = e.message;
       }
       rows.push(rowOf(result?.metal ?? metal, result?.support ?? support, result, error));
       options.onProgress?.(rows.length, total);
     }
   }
+  // every pair refused the same input: the conditions are at fault, not the pairs
+  if (errors.length === total && errors.every((e) => e.message === errors[0]!.message)) throw errors[0]!;
   return rows;
 }
 

@@ -1,8 +1,9 @@
 // Monte Carlo propagation of literature scatter: each material input with a published range is sampled
 // (uniformly, or log-uniformly for densities), the contact is re-solved, and the spread of results reported.
-import type { ResolvedContact, SampledFields } from '../inputs/contactInput.js';
+import type { ResolvedContact } from '../inputs/contactInput.js';
+import { rowOfSample } from '../inputs/parameters.js';
 import type { ContactResult, FlowDirection, Percentiles, UncertaintySummary } from '../types.js';
-import { ConvergenceError, requireInRange } from '../errors.js';
+import { ConvergenceError, isModelFailure, requireInRange } from '../errors.js';
 
 /** mulberry32: small, fast, seedable PRNG (common practice, no source); deterministic for a seed. */
 export function seededRandom(seed: number): () => number {
@@ -30,40 +31,18 @@ function percentiles(values: number[]): Percentiles {
   return { p05: percentile(sorted, 0.05), p50: percentile(sorted, 0.5), p95: percentile(sorted, 0.95) };
 }
 
-/** One sampled copy of the resolved inputs. */
+/** One sampled copy of the resolved inputs: each ranged input drawn by its table row's sampling rule. */
 export function sampleInputs(base: ResolvedContact, random: () => number): ResolvedContact {
-  const metal = { ...base.metal };
-  const support = { ...base.support };
+  const metal: Record<string, unknown> = { ...base.metal };
+  const support: Record<string, unknown> = { ...base.support };
   for (const [field, [min, max]] of base.ranges) {
     const u = random();
-    const logScale = field === 'donors_m3' && min > 0;
+    const logScale = rowOfSample(field).sampling === 'log-uniform' && min > 0;
     const value = logScale ? Math.exp(Math.log(min) + u * (Math.log(max) - Math.log(min))) : min + u * (max - min);
-    applySample(field, value, metal, support);
+    if (field in metal) metal[field] = value;
+    else support[field] = value;
   }
-  return { ...base, metal, support };
-}
-
-function applySample(field: keyof SampledFields, value: number, metal: ResolvedContact['metal'], support: ResolvedContact['support']): void {
-  switch (field) {
-    case 'workFunction_eV':
-      metal.workFunction_eV = value;
-      break;
-    case 'electronAffinity_eV':
-      support.electronAffinity_eV = value;
-      break;
-    case 'bandGap_eV':
-      support.bandGap_eV = value;
-      break;
-    case 'permittivity':
-      support.permittivity = value;
-      break;
-    case 'donors_m3':
-      support.donors_m3 = value;
-      break;
-    case 'donorLevel1_eV':
-      support.donorLevel1_eV = value;
-      break;
-  }
+  return { ...base, metal: metal as unknown as ResolvedContact['metal'], support: support as unknown as ResolvedContact['support'] };
 }
 
 /**
@@ -89,7 +68,9 @@ export function propagateUncertainty(
     let result: ContactResult;
     try {
       result = solve(sampled);
-    } catch {
+    } catch (error) {
+      // a sampled combination outside the model is a failed sample; anything else is a bug and surfaces
+      if (!isModelFailure(error)) throw error;
       failed++;
       continue;
     }

@@ -49,3 +49,8 @@ export function stripControl(value: unknown): string {
 export function isSafeBaseName(name: string): boolean {
   return /^[A-Za-z0-9_-][A-Za-z0-9._-]{0,120}$/.test(name);
 }
+
+/** Lines for the terminal: control characters stripped from each, joined with newlines, ending in one. */
+export function terminalLines(lines: readonly string[]): string {
+  return `${lines.map(stripControl).join('\n')}\n`;
+}
