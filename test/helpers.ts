@@ -1,5 +1,8 @@
 // Shared test helpers: independent reference computations written for the tests (not the project's code paths).
 import { makeChargeModel, solveBulkNeutrality, type SupportElectronic } from '../src/bulk/equilibrium.js';
+import type { ContactOptions } from '../src/inputs/parameters.js';
+import type { MaterialsLibrary } from '../src/materials/types.js';
+import type { WarningFacts } from '../src/derived/warnings.js';
 
 /** CODATA 2018 values (Tiesinga et al., Rev. Mod. Phys. 93, 025010 (2021)), typed here independently of mathjs. */
 export const CODATA2018 = {
@@ -76,4 +79,69 @@ export function parseCsv(text: string): string[][] {
     .split(/\r?\n/)
     .filter((l) => l !== '')
     .map(parseCsvLine);
+}
+
+// ---------------------------------------------------------------------------------------------
+// shared fixture builders
+
+/** A materials library with nothing in it: every input must come from the options. */
+export function emptyLibrary(): MaterialsLibrary {
+  return { metals: new Map(), supports: new Map(), references: new Map() };
+}
+
+/**
+ * Tungsten on n-type silicon, N_d = 1e16 cm^-3, 300 K, Boltzmann statistics: the worked example from memory of
+ * D. A. Neamen, Semiconductor Physics and Devices, 4th ed., Examples 9.1-9.2 (verify); overrides replace fields.
+ */
+export function tungstenOnSilicon(overrides: ContactOptions = {}): ContactOptions {
+  return {
+    workFunction: 4.55,
+    electronAffinity: 4.01,
+    bandGap: 1.12,
+    permittivity: 11.7,
+    electronMass: 1.08,
+    holeMass: 0.81,
+    donors: '1e16 cm^-3',
+    temperature: 300,
+    statistics: 'boltzmann',
+    materials: emptyLibrary(),
+    ...overrides,
+  };
+}
+
+/** Warning facts of a quiet contact (no rule applies: moderate depletion, 10 nm layer, 2 nm particle); overrides replace fields. */
+export function warningFacts(overrides: Partial<WarningFacts> = {}): WarningFacts {
+  return {
+    temperature_K: 300,
+    kT_eV: 0.025852,
+    nType: true,
+    bandGap_eV: 3.2,
+    bulkReducedFermiLevel: -6,
+    bandBending_eV: 0.5,
+    electronBarrier_eV: 0.7,
+    particleDiameter_m: 2e-9,
+    depth90_m: 10e-9,
+    interfaceElectrons_m3: 1e15,
+    interfaceHoles_m3: 1,
+    bulkElectrons_m3: 1e23,
+    bulkHoles_m3: 1,
+    endMajority_m3: null,
+    supportThickness_m: undefined,
+    layerTruncated: false,
+    domain_m: 100e-9,
+    donors_m3: 1e23,
+    acceptors_m3: 0,
+    electronsPerParticle: 5,
+    chargingEnergy_eV: 0.01,
+    chargingEnergyOverKT: 0.4,
+    zonesOverlap: null,
+    meanSpacing_m: null,
+    exchangeSlow: false,
+    equilibrationTimeLog10_s: -3,
+    chargeErrorEstimate: 1e-6,
+    refineAbove: 1e-3,
+    estimatedInputs: [],
+    unverifiedInputs: [],
+    ...overrides,
+  };
 }

@@ -1,0 +1,64 @@
+// Each warning rule on its own (src/derived/warnings.ts): it fires on its condition and stays quiet on a quiet contact.
+import { describe, expect, it } from 'vitest';
+import { WARNING_RULES, evaluateWarnings, fullyDepleted } from '../src/derived/warnings.js';
+import type { WarningFacts } from '../src/derived/warnings.js';
+import { warningFacts } from './helpers.js';
+
+const codes = (overrides: Partial<WarningFacts>): string[] => evaluateWarnings(warningFacts(overrides)).map((w) => w.code);
+
+describe('warning rules', () => {
+  it('a quiet contact raises none', () => {
+    expect(evaluateWarnings(warningFacts())).toEqual([]);
+  });
+  it('every rule has a code and a message that names no NaN', () => {
+    for (const rule of WARNING_RULES) {
+      expect(rule.code).toMatch(/^[a-z-]+$/);
+      expect(rule.message(warningFacts())).not.toMatch(/NaN|undefined/);
+    }
+  });
+  // thresholds are the project's stated ones; the physics behind each is named beside it
+  const cases: [string, Partial<WarningFacts>][] = [
+    // continuum dielectric below ~1 nm: common practice, no source
+    ['continuum-doubtful', { particleDiameter_m: 0.8e-9 }],
+    ['continuum-doubtful', { depth90_m: 0.6e-9 }],
+    // non-degenerate when E_C - E_F > 3 kT (Sze & Ng, Physics of Semiconductor Devices, 3rd ed., sec. 1.4.1)
+    ['degenerate-bulk', { bulkReducedFermiLevel: -2 }],
+    // a layer under 0.5 nm is also under the 1 nm continuum limit: both fire (see below)
+    ['thin-accumulation', { bandBending_eV: -0.3, depth90_m: 0.3e-9 }],
+    // inversion: minority carriers exceed majority carriers at the surface (Sze & Ng, 3rd ed., sec. 4.3.1)
+    ['inversion', { interfaceHoles_m3: 1e21, interfaceElectrons_m3: 1e10 }],
+    ['fermi-level-outside-gap', { electronBarrier_eV: -0.1 }],
+    ['fully-depleted', { supportThickness_m: 5e-9, endMajority_m3: 1e20 }],
+    ['layer-truncated', { layerTruncated: true }],
+    ['undoped-support', { donors_m3: 0 }],
+    ['insulating-support', { bulkElectrons_m3: 1e10 }],
+    ['sub-electron-transfer', { electronsPerParticle: 0.3 }],
+    // Coulomb blockade once e^2/2C exceeds kT (common practice, no source)
+    ['charge-quantised', { chargingEnergyOverKT: 2, chargingEnergy_eV: 0.05 }],
+    ['zones-overlap', { zonesOverlap: true, meanSpacing_m: 8e-9 }],
+    ['slow-exchange', { exchangeSlow: true, equilibrationTimeLog10_s: 5 }],
+    ['mesh-accuracy', { chargeErrorEstimate: 1e-2 }],
+    ['estimated-input', { estimatedInputs: ['electron affinity'] }],
+    ['unverified-input', { unverifiedInputs: ['band gap'] }],
+  ];
+  for (const [code, overrides] of cases) {
+    it(`${code} fires on its condition alone`, () => {
+      const expected = code === 'thin-accumulation' ? ['continuum-doubtful', code] : [code];
+      expect(codes(overrides)).toEqual(expected);
+    });
+  }
+  it('every rule code is exercised above', () => {
+    expect(new Set(cases.map(([c]) => c))).toEqual(new Set(WARNING_RULES.map((r) => r.code)));
+  });
+  it('a p-type support is degenerate near the valence band, not the conduction band', () => {
+    // xi = (E_F - E_C)/kT; E_F 0.05 eV above E_V in a 3.2 eV gap
+    const kT = 0.025852;
+    const facts = { nType: false, bulkReducedFermiLevel: -(3.2 - 0.05) / kT, bulkHoles_m3: 1e25, bulkElectrons_m3: 1, interfaceHoles_m3: 1e25, interfaceElectrons_m3: 1, bandBending_eV: -0.5 };
+    expect(codes(facts)).toEqual(['degenerate-bulk']);
+  });
+  it('fully depleted only for a finite grain whose far end lost the majority carriers', () => {
+    expect(fullyDepleted(warningFacts({ supportThickness_m: 5e-9, endMajority_m3: 0.9e23 }))).toBe(false);
+    expect(fullyDepleted(warningFacts({ supportThickness_m: 5e-9, endMajority_m3: 0.1e23 }))).toBe(true);
+    expect(fullyDepleted(warningFacts({ supportThickness_m: 5e-9, endMajority_m3: 0.1e23, bandBending_eV: -0.2 }))).toBe(false);
+  });
+});
