@@ -4,6 +4,7 @@ import { InputError, requireInRange } from '../errors.js';
 import type { InputProvenance, MaterialsLibrary, PropertyValue } from '../materials/types.js';
 import { findMetal, findSupport, provenanceOf, resolveLibrary, formatCitation } from '../materials/load.js';
 import { estimateElectronAffinity } from '../materials/estimate.js';
+import { donorsForFermiLevel } from '../derived/fermiLevel.js';
 import { parseQuantity } from './units.js';
 import { frozenInDonorDensity, oxygenPressureFromHydrogenWater, vacancyDonorDensity } from './pretreatment.js';
 import {
@@ -348,6 +349,24 @@ function checkResolved(c: Resolution): void {
   }
 }
 
+/** The donors that put the bulk Fermi level where the measured support work function says (E_C - E_F = Phi_s - chi). */
+function donorsForWorkFunction(c: Resolution, s: ResolvedSupport, workFunction_eV: number): number {
+  const donors_m3 = donorsForFermiLevel(
+    {
+      temperature_K: c.num('temperature')!,
+      bandGap_eV: s.bandGap_eV,
+      electronMass_me: s.electronMass_me,
+      holeMass_me: s.holeMass_me,
+      donors: { density_m3: 0, kind: s.donorKind, level1_eV: s.donorLevel1_eV, level2_eV: s.donorLevel2_eV },
+      acceptors: { density_m3: s.acceptors_m3, level_eV: s.acceptorLevel_eV },
+      statistics: c.value('statistics') as Statistics,
+    },
+    workFunction_eV - s.electronAffinity_eV,
+  );
+  c.inputs.push({ field: 'donor density (from the support work function)', value: donors_m3 * 1e-6, unit: 'cm^-3', origin: 'derived', note: 'charge neutrality at E_C - E_F = Phi_s - chi' });
+  return donors_m3;
+}
+
 function assembleResolved(c: Resolution): ResolvedContact {
   if (c.records.metal === undefined && !c.given('workFunction')) {
     throw new InputError('--metal', 'give a metal name or --work-function', 'a library metal (see `bandbend materials list --kind metal`) or an energy');
@@ -387,6 +406,8 @@ function assembleResolved(c: Resolution): ResolvedContact {
     neutralLevel_eV: c.num('neutralLevel'),
     pinningFactor: c.num('pinningFactor'),
   };
+  const supportWorkFunction = c.num('supportWorkFunction');
+  if (supportWorkFunction !== undefined) support.donors_m3 = donorsForWorkFunction(c, support, supportWorkFunction);
   return {
     metal,
     support,

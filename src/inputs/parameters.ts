@@ -44,6 +44,8 @@ export interface ContactOptions {
   electronAffinity?: QuantityInput;
   /** support band gap, eV @default library value of the support */
   bandGap?: QuantityInput;
+  /** measured support work function (Kelvin probe, photoemission, Mott–Schottky): fixes E_C - E_F = Phi_s - chi @default none (the donors fix it) */
+  supportWorkFunction?: QuantityInput;
   /** static relative permittivity @default library value of the support */
   permittivity?: QuantityInput;
   /** high-frequency relative permittivity @default library value, else the static permittivity */
@@ -223,6 +225,10 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
     flag: '--electron-affinity <E>', help: 'support electron affinity (eV)', defaultText: 'library value of the support', ...energy([0, 7]),
     label: 'electron affinity', library: (r) => r.support?.electronAffinity_eV, sampling: 'uniform', sampledAs: 'electronAffinity_eV', identifies: 'support',
   },
+  supportWorkFunction: {
+    flag: '--support-work-function <E>', help: 'measured support work function: sets the bulk Fermi level (E_C - E_F = Phi_s - chi)',
+    ...energy([1, 8]), label: 'support work function', when: { test: (c) => !hasPretreatment(c), text: 'without a reduction pretreatment' },
+  },
   permittivity: {
     flag: '--permittivity <ER>', help: 'static relative permittivity', defaultText: 'library value of the support', ...plain(PERMITTIVITY),
     label: 'static permittivity', library: (r) => r.support?.staticPermittivity, sampling: 'uniform', sampledAs: 'permittivity', identifies: 'support',
@@ -268,6 +274,7 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
     flag: '--donors <N>', help: 'donor defect density (cm^-3 if bare)', defaultText: 'library typical density of an n-type support, else 0',
     kind: 'quantity', quantity: 'volumeDensity', limits: DENSITY_M3, label: 'donor density', library: typicalIf(false),
     sampling: 'log-uniform', sampledAs: 'donors_m3',
+    when: { test: (c) => !c.given('supportWorkFunction'), text: 'without --support-work-function (both set the bulk Fermi level)' },
   },
   donorType: {
     flag: '--donor-type <KIND>', help: 'single or double donor', defaultText: 'library donor type, else single', kind: 'choice', choices: ['single', 'double'],
