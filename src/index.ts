@@ -2,6 +2,7 @@
 export { solveContact, solveResolved, MAX_BAND_BENDING_EV } from './contact.js';
 export type { ContactOptions, ResolvedContact } from './inputs/contactInput.js';
 export { resolveContact } from './inputs/contactInput.js';
+export { PARAMETERS, parameterOf, type ParameterRow, type OptionName } from './inputs/parameters.js';
 export type * from './types.js';
 export { InputError, ConvergenceError } from './errors.js';
 export { parseQuantity, type QuantityInput, type QuantityKind } from './inputs/units.js';
@@ -23,6 +24,8 @@ export { particleAtoms, chargingEnergy_eV, meanSpacing_m } from './derived/parti
 export { thermionicExchangeCurrent_A_per_m2, equilibrationTime_s, richardsonConstant_A_per_m2_K2 } from './derived/exchange.js';
 export { fitMottSchottky, parseCapacitanceCsv } from './derived/mottSchottky.js';
 export { propagateUncertainty, seededRandom } from './derived/uncertainty.js';
+export { donorsForFermiLevel } from './derived/fermiLevel.js';
+export { WARNING_RULES, evaluateWarnings, type WarningFacts, type WarningRule } from './derived/warnings.js';
 export { vacancyDonorDensity, oxygenPressureFromHydrogenWater, waterGibbsFormation_kJ_mol, HYDROGEN_CAUTIONS } from './inputs/pretreatment.js';
 
 // workflows and output
@@ -33,3 +36,6 @@ export { writeContactReport, writeScreenReport, writeStudyReport } from './outpu
 export { bandDiagramSpec, chargeFieldSpec, heatmapSpec, linePlotSpec } from './output/figures.js';
 export { renderSvg } from './output/render.js';
 export { formatContactSummary } from './output/summary.js';
+export { writeStudyPlots } from './output/studyPlots.js';
+export { formatNumber, formatQuantity } from './output/format.js';
+export { SCREENING_CAUTION, contactCautions } from './output/cautions.js';
