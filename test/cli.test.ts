@@ -892,3 +892,45 @@ describe('--help', () => {
     expect(version.stdout.trim()).toMatch(/^\d+\.\d+\.\d+$/);
   });
 });
+
+// =====================================================================================================
+describe('every contact --help example runs (bandbend issue 13, item 8)', () => {
+  const help = bandbend(['contact', '--help']).stdout;
+  const examples = help
+    .split('\n')
+    .map((l) => l.trim())
+    .filter((l) => l.startsWith('bandbend contact '));
+  it('lists five examples', () => {
+    expect(examples.length).toBe(5);
+  });
+  examples.forEach((line, i) => {
+    it(`example ${i + 1} exits 0`, () => {
+      // shell words: "5e17 cm^-3" stays one argument; the report goes to a temporary folder
+      const words = (line.match(/"[^"]*"|\S+/g) ?? []).map((w) => w.replace(/^"|"$/g, '')).slice(2);
+      const at = words.indexOf('--report');
+      if (at >= 0) words[at + 1] = tmpPath(`help-example-${i}`);
+      const r = bandbend(['contact', ...words, ...(at >= 0 ? ['--json'] : [])]);
+      expect(r.code, show(r)).toBe(0);
+    });
+  });
+});
+
+describe('no silent options (bandbend issue 13, item 4)', () => {
+  it('--particle-density outside the array geometry exits 2 naming the condition', () => {
+    expectBadInput(bandbend(['contact', '--metal', 'Pt', '--support', 'ZnO', '--particle-density', '1e11']), '--particle-density', '--geometry array');
+  });
+  it('--barrier without --barrier-model given exits 2', () => {
+    expectBadInput(bandbend(['contact', '--metal', 'Pt', '--support', 'ZnO', '--barrier', '0.7']), '--barrier', 'given');
+  });
+  it('an empty --donors is an error, not the library default', () => {
+    expectBadInput(bandbend(['contact', '--metal', 'Pt', '--support', 'ZnO', '--donors', '']), '--donors');
+  });
+  it('screen --work-function exits 2 unless --override-materials', () => {
+    expectBadInput(bandbend(['screen', '--metals', 'Pt,Au', '--supports', 'ZnO', '--work-function', '4.0']), '--work-function', '--override-materials');
+    const r = bandbend(['screen', '--metals', 'Pt,Au', '--supports', 'ZnO', '--work-function', '4.0', '--override-materials', '--json']);
+    expect(r.code, show(r)).toBe(0);
+  });
+  it('screen --temperature -5 exits 2 instead of a table of failed rows', () => {
+    expectBadInput(bandbend(['screen', '--metals', 'Pt', '--supports', 'ZnO,CeO2', '--temperature', '-5']), '--temperature');
+  });
+});

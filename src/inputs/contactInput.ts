@@ -10,6 +10,7 @@ import { frozenInDonorDensity, oxygenPressureFromHydrogenWater, vacancyDonorDens
 import {
   PARAMETERS,
   OPTION_NAMES,
+  checkLimits,
   closestName,
   displayUnitOf,
   flagName,
@@ -234,13 +235,6 @@ function libraryValue(c: Resolution, p: ParameterRow, pv: PropertyValue): number
     c.ranges.set(p.sampledAs, [fromDisplay(p, pv.min), fromDisplay(p, pv.max)]);
   }
   return v;
-}
-
-function checkLimits(p: ParameterRow, si: number): number {
-  if (p.limits === undefined) return si;
-  const { unit } = displayUnitOf(p);
-  requireInRange(flagName(p), toDisplay(p, si), toDisplay(p, p.limits[0]), toDisplay(p, p.limits[1]), unit);
-  return si;
 }
 
 function electronAffinityFromFormula(c: Resolution): number | undefined {

@@ -20,6 +20,7 @@
 //
 // Adding a numeric input: add the field (with @default) to ContactOptions, add its row, and use its SI value
 // (`values.get('yourOption')`) in the physics. Flag, help, study field, limits, provenance and sampling follow.
+import { requireInRange } from '../errors.js';
 import type { MetalRecord, PropertyValue, SupportRecord } from '../materials/types.js';
 import type { MaterialsLibrary } from '../materials/types.js';
 import type { QuantityInput, QuantityKind } from './units.js';
@@ -395,6 +396,13 @@ export function toDisplay(p: ParameterRow, si: number): number {
 /** Library value (display unit) -> SI. */
 export function fromDisplay(p: ParameterRow, display: number): number {
   return display * displayUnitOf(p).toSi;
+}
+
+/** Throw InputError (naming the flag, or `field`) unless the SI value is inside the row's limits; shown in display units. */
+export function checkLimits(p: ParameterRow, si: number, field: string = flagName(p)): number {
+  if (p.limits === undefined) return si;
+  requireInRange(field, toDisplay(p, si), toDisplay(p, p.limits[0]), toDisplay(p, p.limits[1]), displayUnitOf(p).unit);
+  return si;
 }
 
 // names close to a typo, shared by the option check and the study-file messages

@@ -20,7 +20,7 @@ import { dirname, extname, isAbsolute, resolve } from 'node:path';
 import { parse as parseYaml } from 'yaml';
 import { z, type ZodErrorMap, type ZodIssue } from 'zod';
 import { InputError } from '../errors.js';
-import { PARAMETERS, closestName, type ContactOptions, type ParameterRow } from '../inputs/parameters.js';
+import { PARAMETERS, checkLimits, closestName, parameterOf, type ContactOptions, type ParameterRow } from '../inputs/parameters.js';
 import { defaultUnitOf, parseQuantity, type QuantityKind } from '../inputs/units.js';
 import type { ContactResult } from '../types.js';
 
@@ -384,7 +384,7 @@ function checkBaseQuantities(label: string, base: Record<string, unknown>): void
     const spec = fieldSpec(field);
     if (spec?.kind !== 'quantity' || value === undefined) continue;
     try {
-      parseQuantity(field, value as number | string, spec.quantity);
+      checkLimits(parameterOf(field)!, parseQuantity(field, value as number | string, spec.quantity), field);
     } catch (err) {
       if (!(err instanceof InputError)) throw err;
       fail(label, ['base', field], err.message.slice(field.length + 2));
