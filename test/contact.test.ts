@@ -1,26 +1,15 @@
 import { describe, expect, it } from 'vitest';
 import { solveContact, type ContactOptions } from '../src/contact.js';
 import { InputError } from '../src/errors.js';
-import type { MaterialsLibrary } from '../src/materials/types.js';
-import { CODATA2018 } from './helpers.js';
+import { CODATA2018, emptyLibrary, tungstenOnSilicon } from './helpers.js';
 
-const EMPTY: MaterialsLibrary = { metals: new Map(), supports: new Map(), references: new Map() };
+const EMPTY = emptyLibrary();
 
 // Tungsten on n-type silicon, N_d = 1e16 cm^-3, 300 K: Phi_m = 4.55 V, chi = 4.01 V, eps = 11.7, N_c = 2.8e19 cm^-3.
 // Worked example from memory of D. A. Neamen, Semiconductor Physics and Devices, 4th ed., Examples 9.1-9.2, verify:
 // Phi_B0 = 0.54 V, phi_n = 0.206 V, V_bi = 0.334 V, x_n = 0.208 um, E_max = 3.2e4 V/cm (depletion approximation).
-const TUNGSTEN_ON_SILICON: ContactOptions = {
-  workFunction: 4.55,
-  electronAffinity: 4.01,
-  bandGap: 1.12,
-  permittivity: 11.7,
-  electronMass: 1.08, // gives N_C = 2.8e19 cm^-3 at 300 K
-  holeMass: 0.81,
-  donors: '1e16 cm^-3',
-  temperature: 300,
-  statistics: 'boltzmann',
-  materials: EMPTY,
-};
+// (electron mass 1.08 gives N_C = 2.8e19 cm^-3 at 300 K; the builder is in test/helpers.ts)
+const TUNGSTEN_ON_SILICON: ContactOptions = tungstenOnSilicon({ materials: EMPTY });
 
 describe('textbook Schottky contact (from memory of Neamen, 4th ed., Ex. 9.1-9.2; verify)', () => {
   const r = solveContact(TUNGSTEN_ON_SILICON);
