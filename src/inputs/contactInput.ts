@@ -5,6 +5,7 @@ import type { InputProvenance, MaterialsLibrary, PropertyValue } from '../materi
 import { findMetal, findSupport, provenanceOf, resolveLibrary, formatCitation } from '../materials/load.js';
 import { estimateElectronAffinity } from '../materials/estimate.js';
 import { donorsForFermiLevel } from '../derived/fermiLevel.js';
+import { formatNumber } from '../output/format.js';
 import { parseQuantity } from './units.js';
 import { frozenInDonorDensity, oxygenPressureFromHydrogenWater, vacancyDonorDensity } from './pretreatment.js';
 import {
@@ -135,7 +136,7 @@ const CROSS_RULES: { option: OptionName; refuse: (o: ContactOptions, c: Resoluti
     option: 'particleDensity',
     refuse: (o, c) => c.value('geometry') === 'array' && o.particleDensity === undefined,
     message: 'the array geometry needs a particle density',
-    allowed: '1000000 to 1000000000000000 cm^-2',
+    allowed: `${row('particleDensity').limits!.map((v) => toDisplay(row('particleDensity'), v)).join(' to ')} cm^-2`,
   },
 ];
 
@@ -316,10 +317,6 @@ const NO_PRETREATMENT: PretreatmentInfo = {
   equilibrationTemperature_K: null,
 };
 
-function fmt(v: number): string {
-  return String(Number(v.toPrecision(3)));
-}
-
 /** Checks between resolved values that the rows cannot make alone. */
 function checkResolved(c: Resolution): void {
   const gap = c.num('bandGap')!;
@@ -337,8 +334,8 @@ function checkResolved(c: Resolution): void {
   if (density !== undefined && diameter > 1 / Math.sqrt(density)) {
     throw new InputError(
       '--particle-density',
-      `particles of ${fmt(diameter * 1e9)} nm overlap at a mean spacing of ${fmt(1e9 / Math.sqrt(density))} nm`,
-      `below ${fmt((1 / (diameter * diameter)) * 1e-4)} cm^-2 for this diameter`,
+      `particles of ${formatNumber(diameter * 1e9)} nm overlap at a mean spacing of ${formatNumber(1e9 / Math.sqrt(density))} nm`,
+      `below ${formatNumber((1 / (diameter * diameter)) * 1e-4)} cm^-2 for this diameter`,
     );
   }
 }
