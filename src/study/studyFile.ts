@@ -21,7 +21,7 @@ import { parse as parseYaml } from 'yaml';
 import { z, type ZodErrorMap, type ZodIssue } from 'zod';
 import { InputError } from '../errors.js';
 import type { ContactOptions } from '../inputs/contactInput.js';
-import { defaultUnitOf, parseQuantity, type QuantityKind } from '../inputs/units.js';
+import { defaultUnitOf, parseQuantity, parseUnit, type QuantityKind } from '../inputs/units.js';
 import type { ContactResult } from '../types.js';
 
 /** Largest study file read, bytes (checked before parsing). */
@@ -452,7 +452,7 @@ function checkUnit(label: string, path: (string | number)[], field: string, unit
   // the default unit needs no check (and no units library at start-up)
   if (unit === defaultUnitOf(spec.quantity)) return;
   try {
-    parseQuantity(field, `1 ${unit}`, spec.quantity);
+    parseUnit(field, unit, spec.quantity);
   } catch (err) {
     if (!(err instanceof InputError)) throw err;
     fail(label, path, `"${unit}" is not a unit of ${err.allowed ?? spec.quantity}`);
