@@ -1,6 +1,6 @@
 // The `bandbend` command line. Exit codes: 0 ok, 2 bad input (one line naming the field), 1 internal error.
 import { Command, CommanderError, Option } from 'commander';
-import { readFileSync, existsSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, writeFileSync } from 'node:fs';
 import { InputError, ConvergenceError, requireInRange } from '../errors.js';
 import { solveContact } from '../contact.js';
 import { addContactFlags, contactOptionsFrom } from './options.js';
@@ -14,6 +14,7 @@ import type { MaterialsLibrary, PropertyValue } from '../materials/types.js';
 import { runScreen, sortScreenRows, writeScreenFolder, screenCsv, SCREEN_COLUMNS, type ScreenRow } from '../screen.js';
 import { parseCapacitanceCsv, fitMottSchottky, parseReferenceElectrode } from '../derived/mottSchottky.js';
 import { parseQuantity } from '../inputs/units.js';
+import { MAX_INPUT_FILE_BYTES, readTextFile } from '../inputs/files.js';
 import { createProgress } from '../study/progress.js';
 import { runDemo } from '../demo.js';
 import { registerStudyCommand } from './study.js';
@@ -376,12 +377,8 @@ function areaFromText(text: string): number {
   return Number(m[1]) * factor[m[2]!]!;
 }
 
-export function readInputFile(path: string, field: string, maxBytes = 5_000_000): string {
-  if (!existsSync(path)) throw new InputError(field, `file not found: ${path}`);
-  const stats = statSync(path);
-  if (!stats.isFile()) throw new InputError(field, `not a file: ${path}`);
-  if (stats.size > maxBytes) throw new InputError(field, `${path} is ${(stats.size / 1e6).toFixed(1)} MB`, `at most ${maxBytes / 1e6} MB`);
-  return readFileSync(path, 'utf8');
+export function readInputFile(path: string, field: string, maxBytes = MAX_INPUT_FILE_BYTES): string {
+  return readTextFile(path, field, maxBytes); // regular files only, size counted while reading (src/inputs/files.ts)
 }
 
 /** Run the CLI; returns the exit code. */
