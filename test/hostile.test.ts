@@ -8,7 +8,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import MarkdownIt from 'markdown-it';
 import { parseCapacitanceCsv, fitMottSchottky } from '../src/derived/mottSchottky.js';
+import { escapeMarkdownCell, escapeMarkdownText, stripControl, stripTerminalControl } from '../src/output/escape.js';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
 let work: string;
@@ -174,5 +177,75 @@ describe('a 130k-row Mott–Schottky CSV (no spread of rows into function calls)
     const fit = JSON.parse(r.stdout) as { points: number; dopantDensity_cm3: number };
     expect(fit.points).toBe(ROWS);
     expect(Math.abs(fit.dopantDensity_cm3 / ND_CM3 - 1)).toBeLessThan(1e-6);
+  });
+});
+
+describe('user text on a terminal and in Markdown', () => {
+  it('terminal: ESC sequences (colour, clear screen, window title), BEL, C1 and bidi controls are removed', () => {
+    expect(stripControl('\u001b[31mPt\u001b[0m\u0007 on \u001b[2J\u001b]0;pwned\u0007ZnO')).toBe('Pt on ZnO');
+    expect(stripControl('a\u009b31mb\u0085c\u007fd')).toBe('abcd');
+    expect(stripControl('abc\u202edcba')).toBe('abcdcba'); // right-to-left override (CVE-2021-42574, "Trojan Source")
+    expect(stripControl('line1\r\nline2\tend')).toBe('line1 line2 end');
+    expect(stripTerminalControl('line1\r\nline2\rline3\u2028x\u001b[1m', true)).toBe('line1\nline2\nline3\nx');
+    fc.assert(
+      fc.property(fc.string({ unit: 'binary', maxLength: 80 }), fc.boolean(), (text, keep) => {
+        // eslint-disable-next-line no-control-regex
+        expect(stripTerminalControl(text, keep)).not.toMatch(keep ? /[\u0000-\u0009\u000b-\u001f\u007f-\u009f\u202a-\u202e\u2066-\u2069]/ : /[\u0000-\u001f\u007f-\u009f\u202a-\u202e\u2066-\u2069]/);
+      }),
+      { numRuns: 1000 },
+    );
+  });
+
+  // A CommonMark renderer (markdown-it 15, with raw HTML allowed and bare URLs linkified: the most permissive
+  // settings) is the reference: escaped user text must come back as the same literal text in one paragraph.
+  const md = new MarkdownIt({ html: true, linkify: true });
+  const decode = (html: string): string =>
+    html.replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"').replace(/&#39;/g, "'").replace(/&amp;/g, '&');
+  function expectLiteral(text: string): void {
+    const html = md.render(escapeMarkdownText(text));
+    const expected = stripControl(text).trim();
+    if (expected === '') return;
+    const m = /^<p>([\s\S]*)<\/p>\n$/.exec(html);
+    expect(m, `${JSON.stringify(text)} rendered as ${html}`).not.toBeNull();
+    expect(m![1], html).not.toMatch(/<[a-z]/i); // no element inside: no link, image, emphasis, code, HTML
+    expect(decode(m![1]!).replace(/ +/g, ' '), html).toBe(expected.replace(/ +/g, ' '));
+  }
+
+  it.each([
+    '[x](javascript:alert(1))',
+    '![img](http://tracker.example/pixel.png)',
+    '[ref]: javascript:alert(1)',
+    '<img src=x onerror=alert(1)>',
+    '<script>alert(1)</script>',
+    'see https://tracker.example and www.tracker.example and //tracker.example',
+    'mail me: someone@mail.example',
+    '<https://tracker.example>',
+    '*bold* _it_ `code` ~~gone~~ a_b_c',
+    '# heading',
+    '- item',
+    '+ item',
+    '1. first',
+    '---',
+    '> quote',
+    'back\\slash \\[x](y)',
+    '&amp; &#x3C;script&#x3E;',
+    'Pt | ZnO',
+  ])('Markdown: %j stays literal text', (text) => {
+    expectLiteral(text);
+  });
+
+  it('Markdown: any string over a Markdown-heavy alphabet stays literal text (property)', () => {
+    const alphabet = '[]()!<>`*_~#-+=.:/@&;|\\ ahjtwx1\n\u001b'.split('');
+    fc.assert(
+      fc.property(fc.string({ unit: fc.constantFrom(...alphabet), maxLength: 40 }), (text) => expectLiteral(text)),
+      { numRuns: 1500 },
+    );
+  });
+
+  it('Markdown table cell: a pipe or a link in user text stays inside its cell', () => {
+    const cell = escapeMarkdownCell('a | b [x](javascript:alert(1)) ![i](http://t.example/p.png)');
+    const html = md.render(`| name | note |\n| --- | --- |\n| Pt | ${cell} |\n`);
+    expect(html.match(/<td>/g)).toHaveLength(2);
+    expect(html).not.toMatch(/<a |<img /);
   });
 });
