@@ -85,6 +85,9 @@ describe('exact values by definition (BIPM, The International System of Units, 9
     expect(parseQuantity('D', '1e-12', 'diffusionCoefficient')).toBe(1e-16);
     expect(parseQuantity('D', '1e-16 m^2 s^-1', 'diffusionCoefficient')).toBe(1e-16);
     expect(parseQuantity('F', '1e5 V/cm', 'electricField')).toBe(1e7);
+    expect(parseQuantity('A', '0.5 cm^2', 'area')).toBe(5e-5);
+    expect(parseQuantity('A', '0.5', 'area')).toBe(5e-5);
+    expect(parseQuantity('A', '2 mm2', 'area')).toBe(2e-6);
   });
 
   it('wrong dimensions are refused with the kind named', () => {
@@ -114,6 +117,8 @@ const COMPARABLE: readonly { kind: QuantityKind; ours: string; theirs: string; r
   { kind: 'length', ours: 'um', theirs: 'um', rel: 1e-14 },
   { kind: 'length', ours: 'cm', theirs: 'cm', rel: 1e-14 },
   { kind: 'length', ours: 'Å', theirs: 'angstrom', rel: 1e-14 },
+  { kind: 'area', ours: 'cm^2', theirs: 'cm^2', rel: 1e-14 },
+  { kind: 'area', ours: 'mm2', theirs: 'mm^2', rel: 1e-14 },
   { kind: 'pressure', ours: 'bar', theirs: 'bar', rel: 1e-14 },
   { kind: 'pressure', ours: 'mbar', theirs: 'mbar', rel: 1e-14 },
   { kind: 'pressure', ours: 'Pa', theirs: 'Pa', rel: 1e-14 },

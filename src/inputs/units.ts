@@ -25,6 +25,7 @@ export type QuantityKind =
   | 'stateDensityPerArea' // returns per eV per m^2 (interface-state density D_it)
   | 'temperature' // returns K
   | 'length' // returns m (particle sizes, support and thin-layer thicknesses)
+  | 'area' // returns m^2 (electrode areas)
   | 'pressure' // returns Pa
   | 'time' // returns s
   | 'diffusionCoefficient' // returns m^2/s
@@ -54,6 +55,7 @@ const KINDS: Record<QuantityKind, KindSpec> = {
   },
   temperature: { defaultUnit: 'K', target: 'K', label: 'a temperature (e.g. "573 K" or "300 degC")', bareFactor: 1 },
   length: { defaultUnit: 'nm', target: 'm', label: 'a length (e.g. "2 nm")', bareFactor: 1e-9 },
+  area: { defaultUnit: 'cm^2', target: 'm^2', label: 'an area (e.g. "0.5 cm^2")', bareFactor: 1e-4 },
   pressure: { defaultUnit: 'bar', target: 'Pa', label: 'a pressure (e.g. "1e-20 bar")', bareFactor: 1e5 },
   time: { defaultUnit: 's', target: 's', label: 'a time (e.g. "30 min")', bareFactor: 1 },
   diffusionCoefficient: { defaultUnit: 'cm^2/s', target: 'm^2/s', label: 'a diffusion coefficient (e.g. "1e-12 cm^2/s")', bareFactor: 1e-4 },
