@@ -4,28 +4,19 @@
 // show no errors and no request may fail (the report is meant to be self-contained and offline).
 // A full-page screenshot is saved as test-output/demo-report.png (git-ignored) for a human to look at.
 //
-// The browser is the Debian package at /usr/bin/chromium (CI installs it in .ci/run); playwright never downloads one.
-// When it is missing this test FAILS with a message saying so: it is not skipped.
+// The browser is the Chromium shipped inside the devDependency @sparticuz/chromium (see test/support/browser.ts): no
+// system browser is used and none is downloaded. When it cannot be started this test FAILS saying why: never skipped.
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser, type Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
+import { launchBrowser } from './support/browser.js';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
-const CHROMIUM = '/usr/bin/chromium';
 const OUTPUT_DIR = join(ROOT, 'test-output');
-const CHROMIUM_ARGS = [
-  '--headless',
-  '--no-sandbox',
-  '--disable-gpu',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-];
 
 let work: string;
 let demoDir: string;
@@ -44,13 +35,7 @@ afterAll(async () => {
 });
 
 async function launch(): Promise<Browser> {
-  if (!existsSync(CHROMIUM)) {
-    throw new Error(
-      `${CHROMIUM} not found: the browser test needs Debian's chromium package (apt-get install chromium; .ci/run installs it). ` +
-        'It is not downloaded by playwright and the test is not skipped.',
-    );
-  }
-  browser ??= await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS });
+  browser ??= await launchBrowser();
   return browser;
 }
 

@@ -1,6 +1,5 @@
 // Small helpers shared by the commands: JSON on stdout, bounded reads of input files.
-import { existsSync, readFileSync, statSync } from 'node:fs';
-import { InputError } from '../errors.js';
+import { MAX_INPUT_FILE_BYTES, readTextFile } from '../inputs/files.js';
 
 /** One JSON document on stdout; non-finite numbers become null. */
 export function writeJson(value: unknown): void {
@@ -12,10 +11,6 @@ export function materialsFiles(value: unknown): string[] | undefined {
   return Array.isArray(value) ? (value as string[]) : undefined;
 }
 
-export function readInputFile(path: string, field: string, maxBytes = 5_000_000): string {
-  if (!existsSync(path)) throw new InputError(field, `file not found: ${path}`);
-  const stats = statSync(path);
-  if (!stats.isFile()) throw new InputError(field, `not a file: ${path}`);
-  if (stats.size > maxBytes) throw new InputError(field, `${path} is ${(stats.size / 1e6).toFixed(1)} MB`, `at most ${maxBytes / 1e6} MB`);
-  return readFileSync(path, 'utf8');
+export function readInputFile(path: string, field: string, maxBytes = MAX_INPUT_FILE_BYTES): string {
+  return readTextFile(path, field, maxBytes); // regular files only, size counted while reading (src/inputs/files.ts)
 }

@@ -3,6 +3,7 @@
 import { Matrix, inverse, solve } from 'ml-matrix';
 import { EPS0_F_PER_M, K_BOLTZMANN_EV_PER_K, Q_ELEMENTARY_C } from '../constants.js';
 import { InputError, requireInRange } from '../errors.js';
+import { parseCsvRecords, readTextFile, type CsvRecord } from '../inputs/files.js';
 
 /**
  * Absolute potential of the standard hydrogen electrode, 4.44 V (± 0.02 V) at 298.15 K: IUPAC recommendation,
@@ -198,14 +199,20 @@ export function fitMottSchottky(input: MottSchottkyInput): MottSchottkyFit {
     potentials.push(row.potential_V);
     inverseSquare.push(1 / perArea ** 2);
   });
-  const minV = Math.min(...potentials);
-  const maxV = Math.max(...potentials);
+  // loops, not Math.min(...array): spreading 130k+ values into a call overflows the stack
+  let minV = Infinity;
+  let maxV = -Infinity;
+  for (const v of potentials) {
+    if (v < minV) minV = v;
+    if (v > maxV) maxV = v;
+  }
   if (!(maxV - minV > 1e-9 * Math.max(1, Math.abs(maxV)))) {
     throw new InputError('rows', 'all points are at the same potential, so no slope can be fitted', 'at least two distinct potentials');
   }
 
   const fit = fitStraightLine(potentials, inverseSquare);
-  const largestInverseSquare = Math.max(...inverseSquare);
+  let largestInverseSquare = 0;
+  for (const y of inverseSquare) if (y > largestInverseSquare) largestInverseSquare = y;
   // Numerically flat: the fitted change of 1/c^2 across the window is at roundoff level of 1/c^2 itself.
   if (!Number.isFinite(fit.slope) || Math.abs(fit.slope) * (maxV - minV) <= 1e-9 * largestInverseSquare) {
     throw new InputError('rows', '1/C^2 does not change with potential: no Mott–Schottky slope', 'data with a nonzero 1/C^2 slope');
@@ -279,100 +286,6 @@ export interface ParsedCapacitanceCsv {
 const M2_PER_CM2 = 1e-4;
 const NUMBER_PATTERN = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
-interface CsvRecord {
-  /** 1-based line of the file where the record starts */
-  line: number;
-  cells: string[];
-}
-
-/**
- * Split CSV text into records (RFC 4180 style): comma separators, double-quoted cells with "" escapes,
- * LF or CRLF line ends. Blank lines and lines starting with '#' are skipped. Written here because the
- * format is tiny and every error must name the file and line.
- */
-function splitCsv(text: string, fileLabel: string): CsvRecord[] {
-  const records: CsvRecord[] = [];
-  let cells: string[] = [];
-  let cell = '';
-  let quoted = false;
-  let cellWasQuoted = false;
-  let line = 1;
-  let recordLine = 1;
-  let atRecordStart = true;
-  let skipping = false;
-  const source = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-
-  const endRecord = () => {
-    cells.push(cell);
-    const blank = cells.length === 1 && cells[0]!.trim() === '' && !cellWasQuoted;
-    if (!blank) records.push({ line: recordLine, cells });
-    cells = [];
-    cell = '';
-    cellWasQuoted = false;
-    atRecordStart = true;
-  };
-
-  for (let i = 0; i < source.length; i++) {
-    const ch = source[i]!;
-    if (skipping) {
-      if (ch === '\n') {
-        skipping = false;
-        line++;
-        atRecordStart = true;
-      }
-      continue;
-    }
-    if (atRecordStart) {
-      recordLine = line;
-      atRecordStart = false;
-      if (ch === '#') {
-        skipping = true;
-        continue;
-      }
-    }
-    if (quoted) {
-      if (ch === '"') {
-        if (source[i + 1] === '"') {
-          cell += '"';
-          i++;
-        } else {
-          quoted = false;
-        }
-      } else {
-        if (ch === '\n') line++;
-        cell += ch;
-      }
-      continue;
-    }
-    if (ch === '"') {
-      if (cell.trim() !== '') {
-        throw new InputError(`${fileLabel}: row ${line}`, 'stray double quote inside an unquoted cell', 'quote whole cells: "like this"');
-      }
-      cell = '';
-      quoted = true;
-      cellWasQuoted = true;
-    } else if (ch === ',') {
-      cells.push(cell);
-      cell = '';
-      cellWasQuoted = false;
-    } else if (ch === '\n') {
-      if (cell.endsWith('\r')) cell = cell.slice(0, -1);
-      endRecord();
-      line++;
-    } else {
-      cell += ch;
-    }
-  }
-  if (quoted) {
-    throw new InputError(`${fileLabel}: row ${recordLine}`, 'a quoted cell is never closed', 'matching double quotes');
-  }
-  if (!skipping && !atRecordStart) {
-    if (cell.endsWith('\r')) cell = cell.slice(0, -1);
-    endRecord();
-  }
-  return records;
-}
-
 /**
  * Read capacitance–voltage data from CSV text. The first non-comment line is a header naming the columns
  * (case-insensitive, extra columns ignored):
@@ -383,7 +296,7 @@ function splitCsv(text: string, fileLabel: string): CsvRecord[] {
  */
 export function parseCapacitanceCsv(text: string, fileLabel: string): ParsedCapacitanceCsv {
   if (typeof text !== 'string') throw new InputError(fileLabel, 'no CSV text given');
-  const records = splitCsv(text, fileLabel);
+  const records = parseCsvRecords(text, fileLabel);
   const header = records.shift();
   if (!header) {
     throw new InputError(fileLabel, 'the file has no header line', 'a header with potential_V and capacitance_F or capacitance_F_per_cm2');
@@ -433,6 +346,14 @@ export function parseCapacitanceCsv(text: string, fileLabel: string): ParsedCapa
     throw new InputError(fileLabel, `${rows.length} data rows`, 'at least 3 capacitance-voltage points');
   }
   return { rows, capacitanceColumn };
+}
+
+/**
+ * Read a capacitance–voltage CSV file (regular files of at most 5 MB only, see src/inputs/files.ts) and parse it
+ * with parseCapacitanceCsv; errors name `field` and the path.
+ */
+export function readCapacitanceCsvFile(path: string, field: string = path): ParsedCapacitanceCsv {
+  return parseCapacitanceCsv(readTextFile(path, field), path);
 }
 
 function readNumber(fileLabel: string, record: CsvRecord, index: number, column: string): number {

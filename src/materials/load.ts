@@ -5,12 +5,12 @@
 // dist/materials/load.js when compiled: both are two levels below the root).
 // User files (--materials FILE, JSON or YAML) may hold any of "metals", "supports", "references";
 // an entry whose name (or reference id) already exists replaces the earlier one as a whole.
-import { readFileSync, statSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { extname } from 'node:path';
 import { parse as parseYaml } from 'yaml';
 import type { ZodError, ZodIssue } from 'zod';
 import { InputError } from '../errors.js';
+import { MAX_INPUT_FILE_BYTES, readTextFile } from '../inputs/files.js';
 import type { CslItem, InputProvenance, MaterialsLibrary, MetalRecord, PropertyValue, SupportRecord } from './types.js';
 import { MaterialsFileSchema, ReferencesFileSchema, type MaterialsFile, type MetalEntry, type SupportEntry } from './schema.js';
 
@@ -38,26 +38,10 @@ function fail(label: string, message: string): never {
 
 /** Read a JSON or YAML file into plain data. Malformed text gives an InputError naming the file. */
 /** Largest materials file accepted (a library of thousands of entries is far below this). */
-export const MAX_MATERIALS_FILE_BYTES = 5_000_000;
+export const MAX_MATERIALS_FILE_BYTES = MAX_INPUT_FILE_BYTES;
 
 export function readDataFile(path: string, label: string = path): unknown {
-  let text: string;
-  let size: number;
-  try {
-    size = statSync(path).size;
-  } catch (err) {
-    const code = (err as NodeJS.ErrnoException).code;
-    return fail(label, code === 'ENOENT' ? 'file not found' : `cannot read file (${code ?? String(err)})`);
-  }
-  if (size > MAX_MATERIALS_FILE_BYTES) {
-    return fail(label, `file is ${(size / 1e6).toFixed(1)} MB, larger than the ${MAX_MATERIALS_FILE_BYTES / 1e6} MB limit`);
-  }
-  try {
-    text = readFileSync(path, 'utf8');
-  } catch (err) {
-    const code = (err as NodeJS.ErrnoException).code;
-    return fail(label, code === 'ENOENT' ? 'file not found' : `cannot read file (${code ?? String(err)})`);
-  }
+  const text = readTextFile(path, `materials file ${label}`); // regular files of at most 5 MB (src/inputs/files.ts)
   const ext = extname(path).toLowerCase();
   if (ext === '.yaml' || ext === '.yml') {
     try {

@@ -15,17 +15,17 @@
 //
 // Every problem is an InputError naming the file and the path inside it, e.g.
 // "study.yaml: sweep.axes[0].log.points: expected an integer >= 2".
-import { readFileSync, statSync } from 'node:fs';
 import { dirname, extname, isAbsolute, resolve } from 'node:path';
 import { parse as parseYaml } from 'yaml';
 import { z, type ZodErrorMap, type ZodIssue } from 'zod';
 import { InputError } from '../errors.js';
+import { MAX_INPUT_FILE_BYTES, readTextFile } from '../inputs/files.js';
 import { PARAMETERS, checkLimits, closestName, parameterOf, type ContactOptions, type ParameterRow } from '../inputs/parameters.js';
-import { defaultUnitOf, parseQuantity, type QuantityKind } from '../inputs/units.js';
+import { defaultUnitOf, parseQuantity, parseUnit, type QuantityKind } from '../inputs/units.js';
 import type { ContactResult } from '../types.js';
 
-/** Largest study file read, bytes (checked before parsing). */
-export const MAX_STUDY_FILE_BYTES = 5 * 1024 * 1024;
+/** Largest study file read, bytes (counted while reading, before parsing): the one input-file limit. */
+export const MAX_STUDY_FILE_BYTES = MAX_INPUT_FILE_BYTES;
 /** Largest number of points in one study. */
 export const MAX_STUDY_POINTS = 1_000_000;
 
@@ -404,7 +404,7 @@ function checkUnit(label: string, path: (string | number)[], field: string, unit
   // the default unit needs no check (and no units library at start-up)
   if (unit === defaultUnitOf(spec.quantity)) return;
   try {
-    parseQuantity(field, `1 ${unit}`, spec.quantity);
+    parseUnit(field, unit, spec.quantity);
   } catch (err) {
     if (!(err instanceof InputError)) throw err;
     fail(label, path, `"${unit}" is not a unit of ${err.allowed ?? spec.quantity}`);
@@ -566,25 +566,9 @@ export function parseStudyText(text: string, label: string, options: Omit<ParseS
   return parseStudy(raw, { ...options, label });
 }
 
-/** Read and validate a study file. Files over 5 MB are refused before reading. */
+/** Read and validate a study file (a regular file of at most 5 MB). */
 export function loadStudyFile(path: string): Study {
   const label = path;
-  let size: number;
-  try {
-    const st = statSync(path);
-    if (!st.isFile()) fail(label, '', 'not a file');
-    size = st.size;
-  } catch (err) {
-    if (err instanceof InputError) throw err;
-    const code = (err as NodeJS.ErrnoException).code;
-    return fail(label, '', code === 'ENOENT' ? 'file not found' : `cannot read file (${code ?? String(err)})`);
-  }
-  if (size > MAX_STUDY_FILE_BYTES) fail(label, '', `file is ${(size / 1048576).toFixed(1)} MB; study files are limited to 5 MB`);
-  let text: string;
-  try {
-    text = readFileSync(path, 'utf8');
-  } catch (err) {
-    return fail(label, '', `cannot read file (${(err as NodeJS.ErrnoException).code ?? String(err)})`);
-  }
+  const text = readTextFile(path, label); // regular files of at most 5 MB, size counted while reading
   return parseStudyText(text, label, { baseDir: dirname(resolve(path)) });
 }
