@@ -79,9 +79,9 @@ export const DEFAULT_MAX_DOMAIN_M = 100e-6;
 export const CHARGE_TOLERANCE = 1e-5;
 export const REFINE_ABOVE = CHARGE_TOLERANCE;
 /** cells of the first mesh relative to the mesh generator's defaults (coarse: most cases meet 1e-5 on it) */
-const BASE_COARSENING = 4;
+const BASE_COARSENING = 3;
 /** observed ratio of successive charge differences accepted as second-order convergence (4 in theory) */
-const ASYMPTOTIC_RATIO = [3, 5.5] as const;
+const ASYMPTOTIC_RATIO = [3.6, 4.5] as const;
 /** the bisection stops before the finest mesh exceeds this many nodes */
 const MAX_FINE_NODES = 40000;
 
@@ -183,8 +183,10 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
       previousInRange = inRange;
       const capped = 2 * x.length - 1 > MAX_FINE_NODES;
       if (scale === 0) bound = d1 === 0 && d2 === 0 ? 0 : 1;
-      // |X_k - X_k-1| / (2^p - 1) estimates the error of X_k for convergence of order p >= 2: p = 2 is the safe choice
-      else if (asymptotic) bound = Math.abs(x2 - x1) / 3 / scale;
+      // |X_k - X_k-1| / (2^p - 1) estimates the error of X_k for convergence of order p >= 2; we take p = 2 with a
+      // safety factor 1.5, i.e. |X_k - X_k-1| / 2: with / 3 and a ratio window [3, 5.5], 5 of 6000 random cases
+      // (seeds 7 and 20261203 of test/reference/randomCases.ts) exceeded their bound by up to 3x; none do now
+      else if (asymptotic) bound = Math.abs(x2 - x1) / 2 / scale;
       // stopped outside the asymptotic range: only the size of the last changes is known
       else bound = Math.max(Math.abs(x2 - x1), Math.abs(d2), Math.abs(d1)) / scale;
       if ((bound <= tolerance && asymptotic) || capped) break;
