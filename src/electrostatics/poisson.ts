@@ -496,11 +496,22 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
     }
     if (!accepted) throw new ConvergenceError('damped Newton step could not reduce the correction (line search failed)', iterations);
     // accept the trial point: its residual and Jacobian are already computed
-    [u, trial] = [trial, u];
-    [residual, trialResidual] = [trialResidual, residual];
-    [lower, trialLower] = [trialLower, lower];
-    [diag, trialDiag] = [trialDiag, diag];
-    [upper, trialUpper] = [trialUpper, upper];
+    // plain swaps (destructuring swaps allocate a temporary array in some engines)
+    let swap = u;
+    u = trial;
+    trial = swap;
+    swap = residual;
+    residual = trialResidual;
+    trialResidual = swap;
+    swap = lower;
+    lower = trialLower;
+    trialLower = swap;
+    swap = diag;
+    diag = trialDiag;
+    trialDiag = swap;
+    swap = upper;
+    upper = trialUpper;
+    trialUpper = swap;
   }
   if (!converged) throw new ConvergenceError(`no convergence within ${maxIterations} Newton iterations`, iterations);
 
