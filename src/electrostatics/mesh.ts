@@ -166,7 +166,7 @@ export interface MeshOptions {
   /**
    * 'zero-field' (default): the domain must reach where the layer has decayed (|u| < 1e-13 |u_s|).
    * 'screened': the solver closes the far end with the screened-tail condition (see poisson.ts), so the domain
-   * only has to reach the linear tail, |u| <= min(1e-3 |u_s|, 1e-2).
+   * only has to reach the linear tail, |u| <= min(1e-5 |u_s|, 1e-3).
    */
   farBoundary?: 'zero-field' | 'screened';
 }
@@ -195,7 +195,9 @@ export function buildMesh(options: MeshOptions): Mesh {
   const bulkFinite = Number.isFinite(fi.bulkScreening_m);
   const coreEnd = fi.depthAtFraction(1e-6);
   const screened = options.farBoundary === 'screened';
-  const tailFraction = Math.min(1e-3, 1e-2 / Math.max(fi.magnitude, 1e-300));
+  // deep enough that the profile itself holds all but ~1e-5 of the charge (the rest is the tail the far-end
+  // condition accounts for), so a report that integrates the profile sees the whole charge
+  const tailFraction = Math.min(1e-5, 1e-3 / Math.max(fi.magnitude, 1e-300));
   const decayedEnd = screened
     ? fi.depthAtFraction(Math.max(tailFraction, SMALLEST_FRACTION * 10)) + (bulkFinite ? fi.bulkScreening_m : 0)
     : fi.depthAtFraction(SMALLEST_FRACTION * 10) + (bulkFinite ? 5 * fi.bulkScreening_m : 0);

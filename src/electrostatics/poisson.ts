@@ -69,6 +69,8 @@ export interface PoissonSolution {
 }
 
 export const DEFAULT_MAX_DOMAIN_M = 100e-6;
+/** default longest planar domain, m */
+export const DEFAULT_MAX_PLANAR_DOMAIN_M = 1;
 
 /**
  * Default relative charge tolerance: the solver bisects the mesh until chargeErrorBound <= this.
@@ -132,7 +134,9 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
   const mesh = buildMesh({
     firstIntegral,
     thickness_m: problem.thickness_m,
-    maxDomain_m: problem.maxDomain_m ?? DEFAULT_MAX_DOMAIN_M,
+    // planar supports may extend far (a weakly doped insulator depletes over millimetres): the graded mesh makes
+    // length cheap, so the profile holds the charge instead of leaving it to the far-end condition
+    maxDomain_m: problem.maxDomain_m ?? (geometry.kind === 'planar' ? DEFAULT_MAX_PLANAR_DOMAIN_M : DEFAULT_MAX_DOMAIN_M),
     refinement: (problem.refinement ?? 1) / BASE_COARSENING,
     geometry,
     farBoundary: screened ? 'screened' : 'zero-field',
@@ -376,7 +380,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
   const last = n - 1;
   // geometry factors: face coefficient A/h between node i and i+1, control volume of node i
   // one allocation for every work array of this solve (typed arrays are costly to create one by one)
-  const workspace = new Float64Array(16 * n);
+  const workspace = new Float64Array(20 * n);
   let slot = 0;
   const take = (): Float64Array => workspace.subarray(n * slot++, n * slot);
   const faceCoefficient = take();
@@ -404,6 +408,12 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
   let trialResidual: Float64Array = take();
   const charge = new Float64Array(2);
   const betaVolume = take();
+  // N - N_bulk and dN/du at the nodes from the last residual evaluation: the converged charge comes from these plus
+  // the last (tiny) Newton step, to first order, instead of one more sweep of the charge model
+  let nodeCharge: Float64Array = take();
+  let nodeSlope: Float64Array = take();
+  let trialNodeCharge: Float64Array = take();
+  let trialNodeSlope: Float64Array = take();
   for (let i = 0; i < n; i++) betaVolume[i] = beta * volume[i]!;
 
   /** residual R_i = flux out - flux in - beta V_i N_i (and the Jacobian when asked); returns the scaled norm */
@@ -413,6 +423,8 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
     outLower: Float64Array,
     outDiag: Float64Array,
     outUpper: Float64Array,
+    outCharge: Float64Array,
+    outSlope: Float64Array,
   ): number => {
     let norm = 0;
     for (let i = 1; i < n; i++) {
@@ -428,6 +440,8 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
         d -= endArea * endFlux[1]!;
       }
       out[i] = r;
+      outCharge[i] = charge[0]! - residue;
+      outSlope[i] = -charge[1]!;
       outLower[i] = left;
       outDiag[i] = d;
       outUpper[i] = right;
@@ -440,7 +454,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
 
   let iterations = 0;
   let u: Float64Array = initial;
-  evaluate(u, residual, lower, diag, upper);
+  evaluate(u, residual, lower, diag, upper, nodeCharge, nodeSlope);
   let converged = false;
   const stepCap = Math.max(10, 0.25 * Math.abs(uSurface));
   while (iterations < maxIterations) {
@@ -472,7 +486,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
     for (let halvings = 0; halvings < 50; halvings++) {
       for (let i = 1; i < n; i++) trial[i] = u[i]! + t * step[i]!;
       trial[0] = uSurface;
-      trialNorm = evaluate(trial, trialResidual, trialLower, trialDiag, trialUpper);
+      trialNorm = evaluate(trial, trialResidual, trialLower, trialDiag, trialUpper, trialNodeCharge, trialNodeSlope);
       if (Number.isFinite(trialNorm)) {
         for (let i = 1; i < n; i++) work2[i] = -trialResidual[i]!;
         lower[1] = 0;
@@ -512,14 +526,22 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
     swap = upper;
     upper = trialUpper;
     trialUpper = swap;
+    swap = nodeCharge;
+    nodeCharge = trialNodeCharge;
+    trialNodeCharge = swap;
+    swap = nodeSlope;
+    nodeSlope = trialNodeSlope;
+    trialNodeSlope = swap;
   }
   if (!converged) throw new ConvergenceError(`no convergence within ${maxIterations} Newton iterations`, iterations);
 
   const netCharge = new Float64Array(n);
-  let chargeSum = 0;
-  for (let i = 0; i < n; i++) {
-    model.netCharge(xiBulk - u[i]!, charge);
-    netCharge[i] = charge[0]! - residue;
+  model.netCharge(xiBulk - u[0]!, charge);
+  netCharge[0] = charge[0]! - residue;
+  let chargeSum = netCharge[0]! * volume[0]!;
+  for (let i = 1; i < n; i++) {
+    // N(u + du) = N(u) + dN/du du, exact to O(du^2) ~ 1e-14 after the last step (< 1e-7 kT)
+    netCharge[i] = nodeCharge[i]! + nodeSlope[i]! * step[i]!;
     chargeSum += netCharge[i]! * volume[i]!;
   }
   // the charge beyond the far end, A g(u_L) / beta (Gauss's law on the screened tail), belongs to the support too
