@@ -42,7 +42,7 @@ describe('2D axisymmetric cell reference', () => {
 });
 
 describe('flux tube against the 2D cell (densities 1e9-1e13 cm^-2, diameters 1 and 5 nm, layer 0.1-10x spacing)', () => {
-  it('reports the deviation; the flux tube stays within 30% (issue: 25% below where the layer matches the spacing)', () => {
+  it('reports the deviation; the flux tube (exponent 4 chosen on this grid) stays within 12%', () => {
     const rows: string[] = [];
     let worst = 0;
     for (const density_cm2 of [1e9, 1e11, 1e12, 1e13]) {
@@ -67,7 +67,28 @@ describe('flux tube against the 2D cell (densities 1e9-1e13 cm^-2, diameters 1 a
     }
     console.log(`flux tube vs 2D cell, max |deviation| ${(100 * worst).toFixed(1)}%\n${rows.join('\n')}`);
     expect(rows.length).toBeGreaterThan(10);
-    expect(worst).toBeLessThan(0.3);
+    expect(worst).toBeLessThan(0.12);
+  }, 600_000);
+  it('held-out grid (3e10-3e12 cm^-2, 2 and 8 nm, layer 0.3 and 3x spacing, not used to choose the exponent): within 5%', () => {
+    let worst = 0;
+    for (const density_cm2 of [3e10, 3e11, 3e12]) {
+      const n = density_cm2 * 1e4;
+      const spacing = 1 / Math.sqrt(n);
+      for (const diameter_nm of [2, 8]) {
+        const a = diameter_nm * 0.5e-9;
+        if (1 / Math.sqrt(Math.PI * n) < 1.5 * a) continue;
+        for (const ratio of [0.3, 3]) {
+          const w = ratio * spacing;
+          const donors = (2 * EPS * CODATA2018.eps0 * (BENDING_EV - 0.0259)) / (CODATA2018.q * w * w);
+          if (donors < 1e18 || donors > 1e27) continue;
+          const base = setup(donors);
+          const tube = solvePoisson({ ...base, geometry: particleArray(a, n) });
+          const cell = solveCell({ ...base, radius_m: a, particleDensity_m2: n, depth_m: Math.max(1.5 * tube.domain_m, 3 * w, 2 * spacing) });
+          worst = Math.max(worst, Math.abs(tube.totalCharge_C / cell.charge_C - 1));
+        }
+      }
+    }
+    expect(worst).toBeLessThan(0.05);
   }, 600_000);
   it.todo('within 3% of the 2D cell over the whole grid (issue 10 item 4: needs a correction or the 2D solve in src)');
 });
