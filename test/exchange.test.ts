@@ -7,8 +7,18 @@ import {
   slowExchange,
   thermionicExchangeCurrent_A_per_m2,
 } from '../src/derived/exchange.js';
+import {
+  exchangeCurrentThroughProfile,
+  forwardSlopeEnergy_eV,
+  planarChargeOfBending,
+  relativeCurrent,
+  relaxationTime99_s,
+  tunnellingEnergy_eV,
+} from '../src/derived/exchange.js';
 import { InputError } from '../src/errors.js';
 import { K_BOLTZMANN_EV_PER_K } from '../src/constants.js';
+import { makeChargeModel, solveBulkNeutrality } from '../src/bulk/equilibrium.js';
+import { CODATA2018, boltzmannPlanarCharge } from './helpers.js';
 
 const A_PER_CM2_PER_A_PER_M2 = 1e-4;
 
@@ -129,5 +139,173 @@ describe('slow exchange', () => {
     expect(slowExchange(3601)).toBe(true);
     expect(slowExchange(Number.POSITIVE_INFINITY)).toBe(true);
     expect(() => slowExchange(Number.NaN)).toThrow(InputError);
+  });
+});
+
+// ---------------------------------------------------------------------------------------------------------------
+// issue 10 item 3: relaxation time and tunnelling
+
+const KT300 = (CODATA2018.k * 300) / CODATA2018.q;
+
+/** forward law written out here independently: J/J0 = exp(V/E0) (1 - exp(-V/kT)) (Padovani & Stratton 1966) */
+function lawHere(v: number, kT: number, e0: number): number {
+  return Math.exp(v / e0) * (1 - Math.exp(-v / kT));
+}
+
+describe('current-voltage law', () => {
+  it('is the thermionic J0 (e^{qV/kT} - 1) for E0 = kT and linear J0 qV/kT near zero bias (Sze & Ng ch. 3)', () => {
+    for (const v of [-0.2, -0.01, 0.003, 0.05, 0.3]) {
+      expect(relativeCurrent(v, KT300, KT300) / Math.expm1(v / KT300)).toBeCloseTo(1, 10);
+      expect(relativeCurrent(v, KT300, 2.5 * KT300) / lawHere(v, KT300, 2.5 * KT300)).toBeCloseTo(1, 10);
+    }
+    expect(relativeCurrent(1e-7, KT300, 3 * KT300) / (1e-7 / KT300)).toBeCloseTo(1, 5);
+    expect(Number.isFinite(relativeCurrent(50, KT300, KT300))).toBe(true);
+  });
+
+  it('E0 = E00 coth(E00/kT): kT in the thermionic limit, E00 in the field-emission limit (Padovani & Stratton 1966)', () => {
+    expect(forwardSlopeEnergy_eV(1e-8, KT300) / KT300).toBeCloseTo(1, 12);
+    expect(forwardSlopeEnergy_eV(1, KT300)).toBeCloseTo(1, 12);
+    expect(forwardSlopeEnergy_eV(KT300, KT300) / (KT300 / Math.tanh(1))).toBeCloseTo(1, 12);
+  });
+
+  it('E00 = 18.6 meV sqrt(N / 1e18 cm^-3 / (m_r eps_r)) (Sze & Ng ch. 3 tunnelling energy; value derived here from CODATA)', () => {
+    // (q hbar / 2) sqrt(1e24 m^-3 / (m0 eps0)) evaluated by hand with CODATA 2018 constants: 0.018596 eV
+    const hbar = CODATA2018.h / (2 * Math.PI);
+    const expected = ((CODATA2018.q * hbar) / 2) * Math.sqrt(1e24 / (CODATA2018.me * CODATA2018.eps0)) / CODATA2018.q;
+    expect(expected).toBeCloseTo(0.0186, 3);
+    expect(tunnellingEnergy_eV(1e24, 1, 1) / expected).toBeCloseTo(1, 9);
+    expect(tunnellingEnergy_eV(4e24, 0.25, 4) / expected).toBeCloseTo(2, 9);
+  });
+});
+
+describe('exchange current through the computed barrier', () => {
+  it('opaque barrier (flat 50 nm top): Richardson–Dushman A* T^2 exp(-Phi/kT) within 1%', () => {
+    const x: number[] = [];
+    const e: number[] = [];
+    for (let i = 0; i <= 400; i++) {
+      const t = (i / 400) * 100e-9;
+      x.push(t);
+      e.push(t < 50e-9 ? 0.8 : 0.8 - 0.7 * Math.min(1, (t - 50e-9) / 10e-9));
+    }
+    const r = exchangeCurrentThroughProfile({ x_m: x, conductionBandAboveFermi_eV: e, massRatio: 0.3, temperature_K: 300 });
+    const rd = richardsonConstant_A_per_m2_K2(0.3) * 300 * 300 * Math.exp(-0.8 / KT300);
+    expect(Math.abs(r.current_A_per_m2 / rd - 1)).toBeLessThan(0.01);
+    expect(r.tunnellingEnhancement).toBeLessThan(1.01);
+  });
+
+  it('parabolic depletion barrier: within 2x of the Padovani–Stratton thermionic-field saturation current (from memory of Sze & Ng ch. 3, verify)', () => {
+    // J_s = A* T sqrt(pi E00 (Phi_B - xi)) / (k cosh(E00/kT)) exp(-xi/kT - (Phi_B - xi)/E0), zero bias; saddle-point
+    // approximation, so only agreement within a factor 2 is expected over E00/kT = 0.1-2.3
+    const T = 300;
+    const m = 0.3;
+    const eps = 10;
+    const phi = 0.8;
+    const xi = 0.1;
+    const richardson = richardsonConstant_A_per_m2_K2(m);
+    for (const n of [1e23, 1e24, 1e25, 3e25]) {
+      const v = phi - xi;
+      const w = Math.sqrt((2 * eps * CODATA2018.eps0 * v) / (CODATA2018.q * n));
+      const x: number[] = [];
+      const e: number[] = [];
+      for (let i = 0; i <= 2000; i++) {
+        const t = (i / 2000) * 1.2 * w;
+        x.push(t);
+        e.push(xi + v * Math.max(0, 1 - t / w) ** 2);
+      }
+      const r = exchangeCurrentThroughProfile({ x_m: x, conductionBandAboveFermi_eV: e, massRatio: m, temperature_K: T });
+      const e00 = tunnellingEnergy_eV(n, m, eps);
+      const e0 = forwardSlopeEnergy_eV(e00, KT300);
+      const js = ((richardson * T * Math.sqrt(Math.PI * e00 * v)) / ((KT300 / T) * Math.cosh(e00 / KT300))) * Math.exp(-xi / KT300 - v / e0);
+      expect(r.current_A_per_m2 / js, `N ${n}`).toBeGreaterThan(0.5);
+      expect(r.current_A_per_m2 / js, `N ${n}`).toBeLessThan(2);
+    }
+  });
+});
+
+describe('relaxation time to 99% of the equilibrium charge', () => {
+  it('linear limit: a capacitor C discharging through q J0 / kT reaches 99% after tau ln 100, tau = C kT/(q J0)', () => {
+    const c = 1e-2; // F/m^2
+    const out = relaxationTime99_s({ equilibriumBending_eV: 1e-4 * KT300, chargeOfBending: (v) => c * v, log10ExchangeCurrent_A_per_m2: -3, temperature_K: 300 });
+    const tau = (c * KT300) / 1e-3;
+    expect(out.log10LinearTau_s).toBeCloseTo(Math.log10(tau), 6);
+    expect(out.seconds / (tau * Math.log(100))).toBeCloseTo(1, 3);
+  });
+
+  it('agrees with a time-domain RK4 integration of dQ/dt = J(V_eq - V(Q)) within 0.5% (Boltzmann planar depletion, closed-form Q(V))', () => {
+    const s = {
+      temperature_K: 300,
+      bandGap_eV: 3.3,
+      electronMass_me: 0.3,
+      holeMass_me: 1,
+      donors: { density_m3: 1e23, kind: 'single' as const },
+      acceptors: { density_m3: 0 },
+      statistics: 'boltzmann' as const,
+    };
+    const model = makeChargeModel(s);
+    const bulk = solveBulkNeutrality(model);
+    const eps = 8.5;
+    const kT = model.kT_eV;
+    const n0 = bulk.electronDensity_m3;
+    const p0 = bulk.holeDensity_m3;
+    // closed form (Sze & Ng ch. 4) and its derivative dQ/dV = eps kT N(u) / (Q kT_eV), N(u) = p0 (e^u - 1) + n0 (1 - e^-u)
+    const charge = (v: number): number => boltzmannPlanarCharge(n0, p0, v / kT, eps, 300);
+    const capacitance = (v: number): number => {
+      const u = v / kT;
+      if (Math.abs(u) < 1e-6) return Math.sqrt((eps * CODATA2018.eps0 * (n0 + p0) * CODATA2018.q) / kT); // eps / L_D per volt
+      return (eps * CODATA2018.eps0 * CODATA2018.k * 300 * (p0 * Math.expm1(u) - n0 * Math.expm1(-u))) / charge(v) / kT;
+    };
+    for (const [veq, e0factor] of [[0.6, 1], [0.6, 2], [-0.15, 1]] as const) {
+      const e0 = e0factor * kT;
+      const log10J0 = -2;
+      const j0 = 10 ** log10J0;
+      const target = 0.99 * Math.abs(charge(veq));
+      // RK4 in V: dV/dt = J0 law(V_eq - V) / C(V); step so that each moves V by <= 0.2% of the remaining deficit
+      const rate = (v: number): number => (j0 * lawHere(veq - v, kT, e0)) / capacitance(v);
+      let v = 0;
+      let t = 0;
+      while (Math.abs(charge(v)) < target) {
+        const k1 = rate(v);
+        const dt = (0.002 * Math.abs(veq - v)) / Math.abs(k1);
+        const k2 = rate(v + 0.5 * dt * k1);
+        const k3 = rate(v + 0.5 * dt * k2);
+        const k4 = rate(v + dt * k3);
+        const next = v + (dt / 6) * (k1 + 2 * k2 + 2 * k3 + k4);
+        if (Math.abs(charge(next)) >= target) {
+          // last partial step: linear interpolation in Q
+          const f = (target - Math.abs(charge(v))) / (Math.abs(charge(next)) - Math.abs(charge(v)));
+          t += f * dt;
+          break;
+        }
+        v = next;
+        t += dt;
+      }
+      const out = relaxationTime99_s({
+        equilibriumBending_eV: veq,
+        chargeOfBending: planarChargeOfBending(model, bulk.reducedFermiLevel, eps, 300),
+        log10ExchangeCurrent_A_per_m2: log10J0,
+        temperature_K: 300,
+        slopeEnergy_eV: e0,
+      });
+      expect(Math.abs(out.seconds / t - 1), `V_eq ${veq} E0/kT ${e0factor}`).toBeLessThan(0.005);
+    }
+  });
+
+  it('is far shorter than |Q|/J0 for a depletion contact (issue 10: 28-79x)', () => {
+    const s = {
+      temperature_K: 473,
+      bandGap_eV: 3.3,
+      electronMass_me: 0.3,
+      holeMass_me: 1,
+      donors: { density_m3: 1e24, kind: 'single' as const },
+      acceptors: { density_m3: 0 },
+      statistics: 'fermi-dirac' as const,
+    };
+    const model = makeChargeModel(s);
+    const bulk = solveBulkNeutrality(model);
+    const q = planarChargeOfBending(model, bulk.reducedFermiLevel, 8.5, 473);
+    const out = relaxationTime99_s({ equilibriumBending_eV: 0.8, chargeOfBending: q, log10ExchangeCurrent_A_per_m2: 0, temperature_K: 473 });
+    const old = equilibrationTime_s({ charge_C_per_m2: q(0.8), log10ExchangeCurrent_A_per_m2: 0 });
+    expect(old.seconds / out.seconds).toBeGreaterThan(5);
+    expect(Number.isFinite(out.log10Seconds)).toBe(true);
   });
 });

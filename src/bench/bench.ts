@@ -14,6 +14,10 @@
 //      same process, so the charge model's statistics call sites (makeChargeModel: stats.density/derivative) have
 //      seen both statistics objects and are polymorphic: in a Boltzmann-only process the charge model is cheaper.
 //    The charge model and bulk equilibrium are prepared once outside the timing: only solvePoisson is timed.
+//  REFERENCE: the same four typical solves with the frozen pre-issue-10 solver (src/bench/legacy/, commit 713f1f8:
+//    one mesh + its bisection, refine only above a 1e-3 Richardson correction), timed in the same interleaved
+//    rounds; the summary reports medians of both and the speed-up ratio reference/current (*_speedup), plus the
+//    true error of both against the exact closed form (Boltzmann cases).
 //  CONTACT: full solveContact on the typical support with custom properties (bare numbers in default units,
 //    so the mathjs unit parser is never loaded), empty materials library, ideal Schottky–Mott barrier with the
 //    work function chosen to give +0.8 eV band bending; hemisphere of 2 nm diameter (radius 1 nm) [headline],
@@ -52,6 +56,7 @@ import { PLANAR, hemisphere, type CrossSection } from '../electrostatics/geometr
 import { bisectMesh, buildMesh, planarFirstIntegral } from '../electrostatics/mesh.js';
 import { DEFAULT_MAX_DOMAIN_M, solvePoisson, type PoissonProblem, type PoissonSolution } from '../electrostatics/poisson.js';
 import { solveTridiagonal } from '../electrostatics/tridiagonal.js';
+import { solvePoisson as solvePoissonReference } from './legacy/poisson.js';
 import { loadLibrary } from '../materials/load.js';
 import type { MaterialsLibrary } from '../materials/types.js';
 import { runScreen } from '../screen.js';
@@ -225,6 +230,17 @@ interface BenchSummary {
   hemisphereSolve_us_median: number;
   planarSolve_us_median_boltzmann: number;
   hemisphereSolve_us_median_boltzmann: number;
+  /** the same medians for the pre-issue-10 solver (src/bench/legacy), timed in the same rounds */
+  planarSolve_us_median_reference: number;
+  hemisphereSolve_us_median_reference: number;
+  planarSolve_us_median_boltzmann_reference: number;
+  hemisphereSolve_us_median_boltzmann_reference: number;
+  /** reference median / current median (> 1 = faster now) */
+  planarSolve_speedup: number;
+  hemisphereSolve_speedup: number;
+  planarSolve_speedup_boltzmann: number;
+  hemisphereSolve_speedup_boltzmann: number;
+  planarRelError_max_reference: number;
   contactSolve_us_median: number;
   contactSolvePlanar_us_median: number;
   planarRelError_max: number;
@@ -355,15 +371,20 @@ function benchTypical(): { solves: Map<string, InterleavedStats>; contacts: Map<
   });
 
   const fd = prepared('fermi-dirac');
+  const reference = (c: { label: string; problem: PoissonProblem }): TimedCase => ({ label: `${c.label} [reference]`, fn: () => solvePoissonReference(c.problem) });
   const fdStats = timeInterleaved(
-    [...fd.map((c) => ({ label: c.label, fn: () => solvePoisson(c.problem) })), ...contactCases.map((c) => ({ label: c.label, fn: () => solveContact(c.options) }))],
+    [
+      ...fd.map((c) => ({ label: c.label, fn: () => solvePoisson(c.problem) })),
+      ...fd.map(reference),
+      ...contactCases.map((c) => ({ label: c.label, fn: () => solveContact(c.options) })),
+    ],
     ROUNDS,
     50,
     100,
   );
   const boltzmann = prepared('boltzmann');
   const bStats = timeInterleaved(
-    boltzmann.map((c) => ({ label: c.label, fn: () => solvePoisson(c.problem) })),
+    [...boltzmann.map((c) => ({ label: c.label, fn: () => solvePoisson(c.problem) })), ...boltzmann.map(reference)],
     ROUNDS,
     50,
     100,
@@ -371,13 +392,20 @@ function benchTypical(): { solves: Map<string, InterleavedStats>; contacts: Map<
   const solves = new Map<string, InterleavedStats>();
   const rows: (string | number)[][] = [];
   for (const c of [...fd, ...boltzmann]) {
-    const st = fdStats.get(c.label) ?? bStats.get(c.label)!;
-    solves.set(c.label, st);
-    rows.push([c.label, st.median, st.p10, st.p90, Math.min(...st.roundMedians), Math.max(...st.roundMedians), st.runs, c.solution.x_m.length, c.solution.iterations, c.solution.chargeErrorEstimate]);
+    for (const [label, solution] of [
+      [c.label, c.solution],
+      [`${c.label} [reference]`, solvePoissonReference(c.problem)],
+    ] as const) {
+      const st = fdStats.get(label) ?? bStats.get(label)!;
+      solves.set(label, st);
+      const estimate = solution.chargeErrorEstimate;
+      const speedup = label === c.label ? (fdStats.get(`${c.label} [reference]`) ?? bStats.get(`${c.label} [reference]`)!).median / st.median : 1;
+      rows.push([label, st.median, st.p10, st.p90, Math.min(...st.roundMedians), Math.max(...st.roundMedians), st.runs, solution.x_m.length, solution.iterations, estimate, speedup]);
+    }
   }
   printTable(
-    'solvePoisson, typical case (N_D 1e18 cm^-3, 300 K, +0.8 eV), model + bulk prepared outside the timing',
-    ['case', 'median us', 'p10 us', 'p90 us', 'best round', 'worst round', 'runs', 'meshPoints', 'iterations', 'Richardson est.'],
+    'solvePoisson, typical case (N_D 1e18 cm^-3, 300 K, +0.8 eV), model + bulk prepared outside the timing; [reference] = pre-issue-10 solver',
+    ['case', 'median us', 'p10 us', 'p90 us', 'best round', 'worst round', 'runs', 'meshPoints', 'iterations', 'error est./bound', 'speed-up vs ref'],
     rows,
   );
   const contacts = new Map<string, InterleavedStats>();
@@ -398,6 +426,8 @@ function benchTypical(): { solves: Map<string, InterleavedStats>; contacts: Map<
 interface AccuracyCase {
   label: string;
   relError: number;
+  /** the pre-issue-10 solver's error on the same case */
+  referenceError: number;
   iterations: number;
   meshPoints: number;
   estimate: number;
@@ -420,15 +450,16 @@ function benchAccuracy(): AccuracyCase[] {
         const u = bb / thermalEnergy_eV(T);
         const exact = exactBoltzmannPlanarCharge(n0, p0, u, TYPICAL.permittivity, T);
         const relError = Math.abs(solution.totalCharge_C - exact) / Math.abs(exact);
+        const referenceError = Math.abs(solvePoissonReference(problem).totalCharge_C - exact) / Math.abs(exact);
         const label = `${nd.toExponential(0)} cm^-3 ${T} K ${bb} eV`;
-        cases.push({ label, relError, iterations: solution.iterations, meshPoints: solution.x_m.length, estimate: solution.chargeErrorEstimate });
-        rows.push([label, exact, relError, solution.chargeErrorEstimate, solution.x_m.length, solution.iterations, solution.domain_m * 1e9, us]);
+        cases.push({ label, relError, referenceError, iterations: solution.iterations, meshPoints: solution.x_m.length, estimate: solution.chargeErrorEstimate });
+        rows.push([label, exact, relError, solution.chargeErrorEstimate, referenceError, solution.x_m.length, solution.iterations, solution.domain_m * 1e9, us]);
       }
     }
   }
   printTable(
     'planar accuracy vs the exact first integral (Boltzmann, fully ionised donors; Sze & Ng ch. 4)',
-    ['case', 'Q exact C/m^2', 'rel error', 'Richardson est.', 'meshPoints', 'iterations', 'domain nm', 'first solve us'],
+    ['case', 'Q exact C/m^2', 'rel error', 'error bound', 'reference rel error', 'meshPoints', 'iterations', 'domain nm', 'first solve us'],
     rows,
   );
   return cases;
@@ -718,8 +749,10 @@ async function main(): Promise<void> {
   const scaling = benchScaling();
   const breakdown = benchBreakdown('planar', PLANAR, typical.get('planar FD')!.median);
   const breakdownHemisphere = benchBreakdown('hemisphere r=1nm', hemisphere(TYPICAL.hemisphereRadius_m), typical.get('hemisphere r=1nm FD')!.median);
-  const screen = benchScreen();
-  const study = await benchStudy();
+  // BENCH_QUICK=1 skips the screen and the 10k-point study (minutes on a shared machine); their keys are then 0
+  const quick = process.env['BENCH_QUICK'] === '1';
+  const screen = quick ? { stats: { median: 0 } } : benchScreen();
+  const study = quick ? { jobs1: [{ wall_s: 0, cpuPerWall: 0 }], jobs2: [{ wall_s: 0, cpuPerWall: 0 }], startup2: 0, failed: 0 } : await benchStudy();
 
   const relErrors = accuracy.map((c) => c.relError);
   const worst = accuracy.reduce((a, b) => (b.relError > a.relError ? b : a));
@@ -732,6 +765,15 @@ async function main(): Promise<void> {
     hemisphereSolve_us_median: round(typical.get('hemisphere r=1nm FD')!.median),
     planarSolve_us_median_boltzmann: round(typical.get('planar Boltzmann')!.median),
     hemisphereSolve_us_median_boltzmann: round(typical.get('hemisphere r=1nm Boltzmann')!.median),
+    planarSolve_us_median_reference: round(typical.get('planar FD [reference]')!.median),
+    hemisphereSolve_us_median_reference: round(typical.get('hemisphere r=1nm FD [reference]')!.median),
+    planarSolve_us_median_boltzmann_reference: round(typical.get('planar Boltzmann [reference]')!.median),
+    hemisphereSolve_us_median_boltzmann_reference: round(typical.get('hemisphere r=1nm Boltzmann [reference]')!.median),
+    planarSolve_speedup: round(typical.get('planar FD [reference]')!.median / typical.get('planar FD')!.median, 3),
+    hemisphereSolve_speedup: round(typical.get('hemisphere r=1nm FD [reference]')!.median / typical.get('hemisphere r=1nm FD')!.median, 3),
+    planarSolve_speedup_boltzmann: round(typical.get('planar Boltzmann [reference]')!.median / typical.get('planar Boltzmann')!.median, 3),
+    hemisphereSolve_speedup_boltzmann: round(typical.get('hemisphere r=1nm Boltzmann [reference]')!.median / typical.get('hemisphere r=1nm Boltzmann')!.median, 3),
+    planarRelError_max_reference: round(Math.max(...accuracy.map((c) => c.referenceError)), 3),
     contactSolve_us_median: round(contact.get('contact hemisphere d=2nm')!.median),
     contactSolvePlanar_us_median: round(contact.get('contact planar')!.median),
     planarRelError_max: round(Math.max(...relErrors), 3),
@@ -760,6 +802,8 @@ async function main(): Promise<void> {
     bench_s: 0,
   };
   summary.targets = {
+    planar_speedup_ge_2: summary.planarSolve_speedup >= 2,
+    hemisphere_speedup_ge_2: summary.hemisphereSolve_speedup >= 2,
     planar_le_200us: summary.planarSolve_us_median <= 200,
     hemisphere_le_1ms: summary.hemisphereSolve_us_median <= 1000,
     relError_le_1e5: summary.planarRelError_max <= 1e-5,
@@ -770,6 +814,8 @@ async function main(): Promise<void> {
     'targets',
     ['target', 'value', 'met'],
     [
+      ['planar solve >= 2x faster than the reference', summary.planarSolve_speedup, String(summary.targets.planar_speedup_ge_2)],
+      ['hemisphere solve >= 2x faster than the reference', summary.hemisphereSolve_speedup, String(summary.targets.hemisphere_speedup_ge_2)],
       ['planar solve <= 200 us', summary.planarSolve_us_median, String(summary.targets.planar_le_200us)],
       ['hemisphere solve <= 1 ms', summary.hemisphereSolve_us_median, String(summary.targets.hemisphere_le_1ms)],
       ['max rel error <= 1e-5', summary.planarRelError_max, String(summary.targets.relError_le_1e5)],

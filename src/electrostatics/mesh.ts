@@ -10,6 +10,8 @@ export interface PlanarFirstIntegral {
   sign: number;
   /** generalised Debye length in the bulk, 1/sqrt(beta |dN/dxi|), m (Infinity when nothing screens) */
   bulkScreening_m: number;
+  /** net charge density / q left in the bulk by the neutrality tolerance, per m^3: the solver subtracts it */
+  bulkResidue_m3: number;
   /** the same at the interface, m */
   surfaceScreening_m: number;
   /** width of a parabola with the same interface slope: 2 |u_s| / |u'(0)|, m */
@@ -24,8 +26,8 @@ export interface PlanarFirstIntegral {
   localLength(x_m: number): number;
 }
 
-const GEOMETRIC_POINTS = 48;
-const UNIFORM_POINTS = 96;
+const GEOMETRIC_POINTS = 24;
+const UNIFORM_POINTS = 48;
 const SMALLEST_FRACTION = 1e-14;
 
 export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface: number, beta: number): PlanarFirstIntegral {
@@ -52,9 +54,15 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
   }
   for (let k = 1; k <= uniformPoints; k++) fractions.push(k / uniformPoints);
   const m = fractions.length;
-  const uValues = new Float64Array(m);
-  const gValues = new Float64Array(m);
-  const debyeLengths = new Float64Array(m);
+  // one allocation for all eight tables (typed arrays are costly to create one by one)
+  const tables = new Float64Array(8 * m);
+  let slot = 0;
+  const take = (): Float64Array => tables.subarray(m * slot++, m * slot);
+  const uValues = take();
+  const gValues = take();
+  const debyeLengths = take();
+  const chargeValues = take();
+  const chargeSlopes = take();
   let previousCharge = 0;
   for (let k = 0; k < m; k++) {
     const u = sign * magnitude * fractions[k]!;
@@ -64,13 +72,15 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
     const currentCharge = k === 0 ? 0 : charge[0]! - bulkResidue;
     // local (generalised) Debye length: resolves carrier layers and defect-ionisation fronts
     debyeLengths[k] = charge[1]! !== 0 ? 1 / Math.sqrt(beta * Math.abs(charge[1]!)) : Infinity;
+    chargeValues[k] = currentCharge;
+    chargeSlopes[k] = Math.abs(charge[1]!);
     if (k > 0) gValues[k] = gValues[k - 1]! + 0.5 * (previousCharge + currentCharge) * (u - uValues[k - 1]!);
     previousCharge = currentCharge;
   }
-  const slopes = new Float64Array(m);
+  const slopes = take();
   for (let k = 0; k < m; k++) slopes[k] = Math.sqrt(2 * beta * Math.max(gValues[k]!, 0));
   // x(u_k) = integral from u_k to u_s of du / |u'|, accumulated downward from the surface
-  const depth = new Float64Array(m);
+  const depth = take();
   depth[m - 1] = 0;
   for (let k = m - 2; k >= 1; k--) {
     const du = Math.abs(uValues[k + 1]! - uValues[k]!);
@@ -120,10 +130,13 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
     return uValues[1]! * decay;
   };
 
-  const lengths = new Float64Array(m);
+  const lengths = take();
   for (let k = 1; k < m; k++) {
     const profileLength = slopes[k]! > 0 ? Math.abs(uValues[k]!) / slopes[k]! : Infinity;
-    lengths[k] = Math.min(profileLength, debyeLengths[k]!);
+    // length over which the charge density itself changes, |N / (dN/du u')|: an ionisation front of a deep donor at
+    // low temperature is a few kT wide in u, far thinner in x than the local Debye length (issue 10, item 5)
+    const chargeLength = chargeSlopes[k]! > 0 && slopes[k]! > 0 ? Math.abs(chargeValues[k]!) / (chargeSlopes[k]! * slopes[k]!) : Infinity;
+    lengths[k] = Math.min(profileLength, debyeLengths[k]!, chargeLength);
   }
   const localLength = (x: number): number => {
     if (magnitude === 0) return bulkScreening_m;
@@ -132,6 +145,7 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
 
   return {
     localLength,
+    bulkResidue_m3: bulkResidue,
     magnitude,
     sign,
     bulkScreening_m,
@@ -149,6 +163,12 @@ export interface MeshOptions {
   maxDomain_m: number;
   refinement: number;
   geometry: CrossSection;
+  /**
+   * 'zero-field' (default): the domain must reach where the layer has decayed (|u| < 1e-13 |u_s|).
+   * 'screened': the solver closes the far end with the screened-tail condition (see poisson.ts), so the domain
+   * only has to reach the linear tail, |u| <= min(1e-5 |u_s|, 1e-3).
+   */
+  farBoundary?: 'zero-field' | 'screened';
 }
 
 export interface Mesh {
@@ -174,7 +194,13 @@ export function buildMesh(options: MeshOptions): Mesh {
   const fi = options.firstIntegral;
   const bulkFinite = Number.isFinite(fi.bulkScreening_m);
   const coreEnd = fi.depthAtFraction(1e-6);
-  const decayedEnd = fi.depthAtFraction(SMALLEST_FRACTION * 10) + (bulkFinite ? 5 * fi.bulkScreening_m : 0);
+  const screened = options.farBoundary === 'screened';
+  // deep enough that the profile itself holds all but ~1e-5 of the charge (the rest is the tail the far-end
+  // condition accounts for), so a report that integrates the profile sees the whole charge
+  const tailFraction = Math.min(1e-5, 1e-3 / Math.max(fi.magnitude, 1e-300));
+  const decayedEnd = screened
+    ? fi.depthAtFraction(Math.max(tailFraction, SMALLEST_FRACTION * 10)) + (bulkFinite ? fi.bulkScreening_m : 0)
+    : fi.depthAtFraction(SMALLEST_FRACTION * 10) + (bulkFinite ? 5 * fi.bulkScreening_m : 0);
   let end: number;
   let truncated = false;
   if (options.thickness_m !== undefined) {
@@ -188,7 +214,9 @@ export function buildMesh(options: MeshOptions): Mesh {
   const particleRadius = options.geometry.kind === 'planar' ? Infinity : Math.sqrt(options.geometry.interfaceArea_m2 / (2 * Math.PI));
   const coreLength = bulkFinite ? fi.bulkScreening_m : fi.effectiveWidth_m;
   let hCore = CORE_CELL_FRACTION * coreLength;
-  let hSurface = SURFACE_CELL_FRACTION * Math.min(fi.surfaceScreening_m, coreLength, particleRadius);
+  // the layer's own width bounds the surface cell too: a depletion layer of fully ionised donors in a frozen-out
+  // bulk has neither a finite surface nor a short bulk screening length (issue 10, item 5)
+  let hSurface = SURFACE_CELL_FRACTION * Math.min(fi.surfaceScreening_m, coreLength, fi.effectiveWidth_m, particleRadius);
   if (!Number.isFinite(hCore) || hCore <= 0) hCore = end / 200;
   if (!Number.isFinite(hSurface) || hSurface <= 0) hSurface = end / 400;
   hCore = Math.min(hCore, end / 20);
@@ -202,7 +230,7 @@ export function buildMesh(options: MeshOptions): Mesh {
     if (nodes !== null) return { x: Float64Array.from(nodes), truncated };
     scale *= 1.5;
   }
-  throw new Error('mesh generation failed');
+  throw new RangeError(`mesh generation failed: more than ${MAX_NODES} nodes even after coarsening 30 times`);
 }
 
 function generate(
@@ -224,7 +252,8 @@ function generate(
     const beyond = x - layerEnd;
     const softplus = beyond > 0 ? beyond + softness * Math.log1p(Math.exp(-beyond / softness)) : softness * Math.log1p(Math.exp(beyond / softness));
     // the profile's own length scale inside the layer, never finer than the surface cell; free growth in the tail
-    const local = Math.max(Math.min(localCell(x), hCore), hSurface);
+    // may go below the surface cell (down to 1% of it) to resolve ionisation fronts inside the layer
+    const local = Math.max(Math.min(localCell(x), hCore), 0.01 * hSurface);
     const far = local + tailGrading * softplus;
     const h = 1 / Math.sqrt(1 / (near * near) + 1 / (far * far));
     if (x + h >= end || end - (x + h) < 0.3 * h) {
