@@ -344,7 +344,7 @@ function brent(f: (x: number) => number, a0: number, b0: number, fa0: number, fb
   throw new ConvergenceError('Brent iteration limit for the interface band bending', 200);
 }
 
-/** Used by callers that read library values in cm^-2 eV^-1. */
+/** D_it per eV per cm^2 -> per eV per m^2 (x 1e4); for callers reading values quoted in cm^-2 eV^-1. Input >= 0, finite. */
 export function stateDensityFromPerCm2(stateDensity_per_eV_cm2: number): number {
   if (!Number.isFinite(stateDensity_per_eV_cm2) || stateDensity_per_eV_cm2 < 0) {
     throw new InputError('stateDensity_per_eV_cm2', 'must be a finite non-negative number', '0 to 1e17 cm^-2 eV^-1');
