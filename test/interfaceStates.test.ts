@@ -10,7 +10,10 @@ import {
   type InterfaceAlignmentInput,
 } from '../src/interface/interfaceStates.js';
 import { barrierHeight } from '../src/barrier/barrier.js';
-import { CODATA2018, boltzmannPlanarCharge, simpson } from './helpers.js';
+import { makeChargeModel, solveBulkNeutrality } from '../src/bulk/equilibrium.js';
+import { solvePoisson } from '../src/electrostatics/poisson.js';
+import { PLANAR } from '../src/electrostatics/geometry.js';
+import { CODATA2018, boltzmannPlanarCharge, exactPlanarCharge, simpson } from './helpers.js';
 
 const T = 300;
 const kT = (CODATA2018.k * T) / CODATA2018.q;
@@ -125,6 +128,32 @@ describe('limits of the self-consistent interface-state model', () => {
     expect(r.bandBending_eV).toBeLessThan(0);
     expect(r.spaceCharge_C_per_m2).toBeLessThan(0);
     expect(r.iterations).toBeLessThan(60);
+  });
+});
+
+describe('with the project Poisson solver as the space charge (how the pipeline will call it)', () => {
+  it('Fermi–Dirac ZnO-like support with partially ionised donors: barrier within 1e-6 eV of the exact-first-integral alignment', () => {
+    const support = {
+      temperature_K: T,
+      bandGap_eV: GAP,
+      electronMass_me: 0.24,
+      holeMass_me: 0.59,
+      donors: { density_m3: 1e24, kind: 'single' as const, level1_eV: 0.054 },
+      acceptors: { density_m3: 0 },
+      statistics: 'fermi-dirac' as const,
+    };
+    const model = makeChargeModel(support);
+    const bulk = solveBulkNeutrality(model);
+    const poisson = (v: number): number =>
+      v === 0
+        ? 0
+        : solvePoisson({ model, bulkReducedFermiLevel: bulk.reducedFermiLevel, surfaceBending: v / model.kT_eV, relativePermittivity: EPS_S, temperature_K: T, geometry: PLANAR })
+            .totalCharge_C;
+    const common = { fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV, stateDensity_per_eV_m2: 5e16 };
+    const numeric = solveInterfaceAlignment(base({ ...common, spaceCharge: poisson }));
+    const exact = solveInterfaceAlignment(base({ ...common, spaceCharge: (v) => exactPlanarCharge(support, EPS_S, v) }));
+    expect(Math.abs(numeric.electronBarrier_eV - exact.electronBarrier_eV)).toBeLessThan(1e-6);
+    expect(numeric.iterations).toBeLessThan(30);
   });
 });
 

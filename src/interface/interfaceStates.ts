@@ -28,7 +28,8 @@ import { ConvergenceError, InputError, requireInRange } from '../errors.js';
 /**
  * Default interfacial-layer thickness, m, and relative permittivity: delta = 0.5 nm, eps_i = 1, the values with which
  * Cowley & Sze (1965) and Sze & Ng (Physics of Semiconductor Devices, 3rd ed., sec. 3.2) turn a measured slope S
- * into a density of interface states (from memory, verify). In the metal-induced-gap-state picture (Mönch,
+ * into a density of interface states (from memory, verify). In the metal-induced-gap-state picture (Heine, Phys. Rev.
+ * 138, A1689 (1965): the states are the tails of the metal wave functions in the gap; Mönch,
  * Electronic Properties of Semiconductor Interfaces, Springer 2004) delta is the decay length of the induced gap
  * states, a few tenths of a nm, with eps_i = 1 (from memory, verify). Only D_it delta / eps_i fixes S; D_it itself
  * (hence the interface-state charge under a particle) scales as eps_i / delta for a given S.
