@@ -3,6 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   interfaceStateCharge_C_per_m2,
+  interfaceParametersFromLibrary,
   interfaceStateDensityFromSlope,
   particleElectrons,
   pinningFactorFromStates,
@@ -181,6 +182,19 @@ describe('interface-state charge and the slope/density relation', () => {
     expect(d * 1e-4).toBeLessThan(2.8e13);
     expect(pinningFactorFromStates(d, 0.5e-9, 1)).toBeCloseTo(0.29, 12);
     expect(interfaceStateDensityFromSlope(1)).toBe(0);
+  });
+
+  it('library values: rutile eps_inf 6.0 -> empirical S = 0.29 (evidence sheet, derived with Mönch's relation), default layer; null without a CNL', () => {
+    const lib = interfaceParametersFromLibrary({ chargeNeutralityAboveValence_eV: 2.2, opticalPermittivity: 6.0 })!;
+    expect(lib.pinningFactorOrigin).toBe('empirical');
+    expect(lib.pinningFactor).toBeCloseTo(0.29, 2);
+    expect(lib.layerOrigin).toBe('default');
+    expect(pinningFactorFromStates(lib.parameters.stateDensity_per_eV_m2, lib.parameters.layerThickness_m, lib.parameters.layerPermittivity)).toBeCloseTo(lib.pinningFactor, 12);
+    const given = interfaceParametersFromLibrary({ chargeNeutralityAboveValence_eV: 2.2, opticalPermittivity: 6.0, pinningFactor: 0.56, interfaceLayerThickness_nm: 0.3, interfaceLayerPermittivity: 2 })!;
+    expect(given.pinningFactorOrigin).toBe('given');
+    expect(given.parameters.layerThickness_m).toBeCloseTo(0.3e-9, 20);
+    expect(pinningFactorFromStates(given.parameters.stateDensity_per_eV_m2, 0.3e-9, 2)).toBeCloseTo(0.56, 12);
+    expect(interfaceParametersFromLibrary({ opticalPermittivity: 6.0 })).toBeNull();
   });
 
   it('particle charge helper: N = (Q_sc A_interface + Q_it A_footprint)/q', () => {

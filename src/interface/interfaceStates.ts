@@ -24,6 +24,7 @@
 // bracket that provably contains it.
 import { EPS0_F_PER_M, Q_ELEMENTARY_C, thermalEnergy_eV } from '../constants.js';
 import { ConvergenceError, InputError, requireInRange } from '../errors.js';
+import { empiricalPinningFactor } from '../barrier/barrier.js';
 
 /**
  * Default interfacial-layer thickness, m, and relative permittivity: delta = 0.5 nm, eps_i = 1, the values with which
@@ -351,4 +352,47 @@ export function stateDensityFromPerCm2(stateDensity_per_eV_cm2: number): number 
     throw new InputError('stateDensity_per_eV_cm2', 'must be a finite non-negative number', '0 to 1e17 cm^-2 eV^-1');
   }
   return stateDensity_per_eV_cm2 * 1e4;
+}
+
+/** Library values of a support (plain numbers read from the PropertyValues of the same names on SupportRecord). */
+export interface InterfaceLibraryValues {
+  chargeNeutralityAboveValence_eV?: number | undefined;
+  pinningFactor?: number | undefined;
+  interfaceLayerThickness_nm?: number | undefined;
+  interfaceLayerPermittivity?: number | undefined;
+  /** eps_inf, for the empirical slope when no pinningFactor is given */
+  opticalPermittivity: number;
+}
+
+export interface InterfaceParametersFromLibrary {
+  parameters: InterfaceStateParameters;
+  pinningFactor: number;
+  pinningFactorOrigin: 'given' | 'empirical';
+  layerOrigin: 'given' | 'default';
+}
+
+/**
+ * Interface-state parameters from library values: D_it from the slope S (given, or the empirical
+ * S = 1/(1 + 0.1 (eps_inf - 1)^2), empiricalPinningFactor in src/barrier/barrier.ts) with the stated layer
+ * (given, or DEFAULT_INTERFACE_LAYER_THICKNESS_M / DEFAULT_INTERFACE_LAYER_PERMITTIVITY). Returns null when the
+ * support has no charge-neutrality level (the interface-state model cannot be used; fall back to `ideal`).
+ */
+export function interfaceParametersFromLibrary(values: InterfaceLibraryValues): InterfaceParametersFromLibrary | null {
+  if (values.chargeNeutralityAboveValence_eV === undefined) return null;
+  const pinningFactorOrigin = values.pinningFactor === undefined ? 'empirical' : 'given';
+  const pinningFactor = values.pinningFactor ?? empiricalPinningFactor(values.opticalPermittivity);
+  const layerGiven = values.interfaceLayerThickness_nm !== undefined || values.interfaceLayerPermittivity !== undefined;
+  const layerThickness_m = values.interfaceLayerThickness_nm === undefined ? DEFAULT_INTERFACE_LAYER_THICKNESS_M : values.interfaceLayerThickness_nm * 1e-9;
+  const layerPermittivity = values.interfaceLayerPermittivity ?? DEFAULT_INTERFACE_LAYER_PERMITTIVITY;
+  return {
+    parameters: {
+      stateDensity_per_eV_m2: interfaceStateDensityFromSlope(pinningFactor, layerThickness_m, layerPermittivity),
+      neutralLevelAboveValence_eV: values.chargeNeutralityAboveValence_eV,
+      layerThickness_m,
+      layerPermittivity,
+    },
+    pinningFactor,
+    pinningFactorOrigin,
+    layerOrigin: layerGiven ? 'given' : 'default',
+  };
 }
