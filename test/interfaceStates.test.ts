@@ -184,7 +184,7 @@ describe('interface-state charge and the slope/density relation', () => {
     expect(interfaceStateDensityFromSlope(1)).toBe(0);
   });
 
-  it('library values: rutile eps_inf 6.0 -> empirical S = 0.29 (evidence sheet, derived with Mönch's relation), default layer; null without a CNL', () => {
+  it('library values: rutile eps_inf 6.0 -> empirical S = 0.29 (evidence sheet, derived with the Mönch relation), default layer; null without a CNL', () => {
     const lib = interfaceParametersFromLibrary({ chargeNeutralityAboveValence_eV: 2.2, opticalPermittivity: 6.0 })!;
     expect(lib.pinningFactorOrigin).toBe('empirical');
     expect(lib.pinningFactor).toBeCloseTo(0.29, 2);
