@@ -1,0 +1,398 @@
+// Interface states at the metal/oxide contact, solved self-consistently with the support's space charge
+// (Bardeen, Phys. Rev. 71, 717 (1947); Cowley & Sze, J. Appl. Phys. 36, 3212 (1965)).
+//
+// Geometry and signs (derived here; energies in eV, charges per m^2, this project's conventions):
+//   metal | interfacial layer (thickness delta, relative permittivity eps_i) | support (x > 0)
+//   - Q_m  : charge on the metal side of the layer (C/m^2)
+//   - Q_it : charge of the interface states at the support surface (C/m^2)
+//   - Q_sc : space charge in the support (C/m^2), positive = support positive = electrons went to the metal;
+//            supplied by the caller as spaceCharge(bandBending_eV), non-decreasing in the band bending
+//   - neutrality Q_m + Q_it + Q_sc = 0.
+//   Gauss's law in the layer: field E_x = Q_m / (eps_i eps0) (zero field in the metal), so the electrostatic
+//   potential falls by Q_m delta / (eps_i eps0) from metal to support and the electron (vacuum-level) energy
+//   rises by Delta = -Q_m delta / (eps_i eps0) from metal to support:
+//   Delta = E_vac(metal) - E_vac(support surface) = phi_m - (chi + Phi_B)
+//   =>  Phi_B = phi_m - chi - Delta = phi_m - chi + Q_m delta / (eps_i eps0)          (Cowley & Sze eq. for Phi_Bn)
+//   with Phi_B = E_C(0) - E_F = (E_C - E_F)_bulk + bandBending_eV.
+//   Interface states: uniform density D_it (per eV per m^2) across the gap, donor-like below the charge-neutrality
+//   level phi_0 (measured up from E_V) and acceptor-like above it, so
+//   Q_it = q D_it (phi_0 - (E_F - E_V(0))) = q D_it (Phi_B - (E_g - phi_0))              (Cowley & Sze)
+//   (exact for a uniform density at any temperature while E_F stays a few kT inside the gap; here the states are
+//   confined to the gap and their Fermi–Dirac occupancy integrated in closed form when a temperature is given).
+// The residual R(V) = Phi_B(V) - phi_m + chi - Q_m(V) delta/(eps_i eps0) [+ particle term] is strictly increasing
+// in V (slope >= 1: every term is non-decreasing), so it has exactly one root, found by Brent's method inside a
+// bracket that provably contains it.
+import { EPS0_F_PER_M, Q_ELEMENTARY_C, thermalEnergy_eV } from '../constants.js';
+import { ConvergenceError, InputError, requireInRange } from '../errors.js';
+import { empiricalPinningFactor } from '../barrier/barrier.js';
+
+/**
+ * Default interfacial-layer thickness, m, and relative permittivity: delta = 0.5 nm, eps_i = 1, the values with which
+ * Cowley & Sze (1965) and Sze & Ng (Physics of Semiconductor Devices, 3rd ed., sec. 3.2) turn a measured slope S
+ * into a density of interface states (from memory, verify). In the metal-induced-gap-state picture (Heine, Phys. Rev.
+ * 138, A1689 (1965): the states are the tails of the metal wave functions in the gap; Mönch,
+ * Electronic Properties of Semiconductor Interfaces, Springer 2004) delta is the decay length of the induced gap
+ * states, a few tenths of a nm, with eps_i = 1 (from memory, verify). Only D_it delta / eps_i fixes S; D_it itself
+ * (hence the interface-state charge under a particle) scales as eps_i / delta for a given S.
+ * Library names (SupportRecord): `interfaceLayerThickness_nm`, `interfaceLayerPermittivity`.
+ */
+export const DEFAULT_INTERFACE_LAYER_THICKNESS_M = 0.5e-9;
+export const DEFAULT_INTERFACE_LAYER_PERMITTIVITY = 1;
+
+/** Interface-state parameters of a metal/support pair. */
+export interface InterfaceStateParameters {
+  /** D_it, states per eV per m^2, uniform in the gap; 0 to 1e21 (= 1e17 cm^-2 eV^-1) */
+  stateDensity_per_eV_m2: number;
+  /** phi_0: charge-neutrality level above the valence-band maximum, eV, 0..E_g (library `chargeNeutralityAboveValence_eV`) */
+  neutralLevelAboveValence_eV: number;
+  /** delta, m, 0 to 10 nm (library `interfaceLayerThickness_nm`) */
+  layerThickness_m: number;
+  /** eps_i, 1 to 1000 (library `interfaceLayerPermittivity`) */
+  layerPermittivity: number;
+}
+
+function checkParameters(p: InterfaceStateParameters, bandGap_eV: number): void {
+  requireInRange('stateDensity_per_eV_m2', p.stateDensity_per_eV_m2, 0, 1e21, 'eV^-1 m^-2');
+  requireInRange('neutralLevelAboveValence_eV', p.neutralLevelAboveValence_eV, 0, bandGap_eV, 'eV');
+  requireInRange('layerThickness_m', p.layerThickness_m, 0, 1e-8, 'm');
+  requireInRange('layerPermittivity', p.layerPermittivity, 1, 1000, '');
+}
+
+/**
+ * Pinning slope S = dPhi_B/dphi_m = 1 / (1 + q^2 D_it delta / (eps_i eps0)) (Cowley & Sze, J. Appl. Phys. 36, 3212
+ * (1965); D_it per J m^2 there; here per eV m^2, so q^2 D_J = q D_eV). Returns S in (0, 1]; 1 without states or layer.
+ */
+export function pinningFactorFromStates(stateDensity_per_eV_m2: number, layerThickness_m: number, layerPermittivity: number): number {
+  requireInRange('stateDensity_per_eV_m2', stateDensity_per_eV_m2, 0, 1e21, 'eV^-1 m^-2');
+  requireInRange('layerThickness_m', layerThickness_m, 0, 1e-8, 'm');
+  requireInRange('layerPermittivity', layerPermittivity, 1, 1000, '');
+  return 1 / (1 + (Q_ELEMENTARY_C * stateDensity_per_eV_m2 * layerThickness_m) / (layerPermittivity * EPS0_F_PER_M));
+}
+
+/**
+ * Inverse of pinningFactorFromStates: D_it = (1/S - 1) eps_i eps0 / (q delta), per eV per m^2 (Cowley & Sze 1965).
+ * Turns a library slope (measured, or empirical S = 1/(1 + 0.1 (eps_inf - 1)^2), Mönch; library `pinningFactor`)
+ * into a state density for a stated delta (m, > 0) and eps_i. S in (0, 1]; S = 1 gives 0.
+ * Defaults: DEFAULT_INTERFACE_LAYER_THICKNESS_M, DEFAULT_INTERFACE_LAYER_PERMITTIVITY.
+ */
+export function interfaceStateDensityFromSlope(
+  pinningFactor: number,
+  layerThickness_m: number = DEFAULT_INTERFACE_LAYER_THICKNESS_M,
+  layerPermittivity: number = DEFAULT_INTERFACE_LAYER_PERMITTIVITY,
+): number {
+  requireInRange('pinningFactor', pinningFactor, 1e-4, 1, '');
+  requireInRange('layerThickness_m', layerThickness_m, 1e-12, 1e-8, 'm');
+  requireInRange('layerPermittivity', layerPermittivity, 1, 1000, '');
+  return ((1 / pinningFactor - 1) * layerPermittivity * EPS0_F_PER_M) / (Q_ELEMENTARY_C * layerThickness_m);
+}
+
+function softplus(x: number): number {
+  return x > 0 ? x + Math.log1p(Math.exp(-x)) : Math.log1p(Math.exp(x));
+}
+
+/**
+ * Charge of the interface states, C/m^2, for an electron barrier Phi_B = E_C(0) - E_F (eV):
+ *   T omitted: Q_it = q D_it (phi_0 - clamp(E_g - Phi_B, 0, E_g))   (zero-temperature occupancy, states in the gap)
+ *   T given:   Q_it = q D_it [phi_0 + kT ln(1 + e^((mu - E_g)/kT)) - kT ln(1 + e^(mu/kT))],  mu = E_F - E_V(0) = E_g - Phi_B
+ *   (Fermi–Dirac occupancy integrated exactly over a uniform density on [E_V, E_C]: int f dE = -kT ln(1 + e^((mu-E)/kT)).)
+ * Positive when E_F lies below the neutrality level (empty donor-like states). Non-decreasing in Phi_B.
+ */
+export function interfaceStateCharge_C_per_m2(
+  electronBarrier_eV: number,
+  bandGap_eV: number,
+  neutralLevelAboveValence_eV: number,
+  stateDensity_per_eV_m2: number,
+  temperature_K?: number,
+): number {
+  if (stateDensity_per_eV_m2 === 0) return 0;
+  const mu = bandGap_eV - electronBarrier_eV;
+  let occupiedBelowMinusNeutral: number;
+  if (temperature_K === undefined) {
+    occupiedBelowMinusNeutral = neutralLevelAboveValence_eV - Math.min(Math.max(mu, 0), bandGap_eV);
+  } else {
+    const kT = thermalEnergy_eV(temperature_K);
+    occupiedBelowMinusNeutral = neutralLevelAboveValence_eV + kT * softplus((mu - bandGap_eV) / kT) - kT * softplus(mu / kT);
+  }
+  return Q_ELEMENTARY_C * stateDensity_per_eV_m2 * occupiedBelowMinusNeutral;
+}
+
+/**
+ * Electrons gained by a finite particle, N = (Q_sc A_interface + Q_it A_footprint) / q: the metal holds the
+ * compensating charge -(Q_sc A_interface + Q_it A_footprint) of the space charge under its whole interface area and
+ * of the interface states under its footprint. Q in C/m^2 (project sign: positive = support positive), areas m^2.
+ */
+export function particleElectrons(spaceCharge_C_per_m2: number, interfaceStateCharge_C_per_m2: number, interfaceArea_m2: number, footprintArea_m2: number): number {
+  requireInRange('interfaceArea_m2', interfaceArea_m2, 0, 1, 'm^2');
+  requireInRange('footprintArea_m2', footprintArea_m2, 0, 1, 'm^2');
+  return (spaceCharge_C_per_m2 * interfaceArea_m2 + interfaceStateCharge_C_per_m2 * footprintArea_m2) / Q_ELEMENTARY_C;
+}
+
+/**
+ * Finite-particle term of the alignment: the particle's Fermi level rises by N / g_tot when it gains N electrons
+ * (quantum capacitance of a finite density of states; S. Luryi, Appl. Phys. Lett. 52, 501 (1988), from memory,
+ * verify), so its effective work function is W - N / g_tot. Its charge also sets the field in the interfacial
+ * layer: Q_m = -q N / A_footprint. See src/derived/finiteParticle.ts for W(R) and g_tot.
+ */
+export interface ParticleTerm {
+  /** g_tot: states per eV of the whole particle at E_F (both spins), > 0 */
+  densityOfStates_per_eV: number;
+  /** area of the metal/support contact (interfacial layer and interface states), m^2 */
+  footprintArea_m2: number;
+  /** area over which spaceCharge() applies (e.g. the footprint for a planar patch), m^2 */
+  interfaceArea_m2: number;
+}
+
+export interface InterfaceAlignmentInput extends InterfaceStateParameters {
+  /** phi_m (for a particle: the size-corrected W(R) of the neutral particle), eV */
+  metalWorkFunction_eV: number;
+  /** chi, eV */
+  electronAffinity_eV: number;
+  /** E_g, eV */
+  bandGap_eV: number;
+  /** bulk E_C - E_F of the support, eV (BulkState.fermiLevelBelowConduction_eV) */
+  fermiLevelBelowConduction_eV: number;
+  /** occupancy temperature of the interface states, K; omitted = zero-temperature step (Cowley–Sze) */
+  temperature_K?: number | undefined;
+  /** Q_sc(V), C/m^2, for band bending V in eV (up = positive); non-decreasing; Q_sc(0) = 0 */
+  spaceCharge: (bandBending_eV: number) => number;
+  particle?: ParticleTerm | undefined;
+  /** tolerance on the band bending, eV (default 1e-12) */
+  tolerance_eV?: number;
+}
+
+export interface InterfaceAlignment {
+  /** Phi_B = E_C(0) - E_F, eV */
+  electronBarrier_eV: number;
+  /** E_C(0) - E_C(bulk), eV */
+  bandBending_eV: number;
+  spaceCharge_C_per_m2: number;
+  interfaceStateCharge_C_per_m2: number;
+  /** metal charge facing the layer, C/m^2 (= -(Q_sc + Q_it) for an extended contact) */
+  metalCharge_C_per_m2: number;
+  /** Delta = -Q_m delta / (eps_i eps0): rise of the electron energy across the layer, metal to support, eV */
+  layerDrop_eV: number;
+  /** emergent slope S = 1 / (1 + q^2 D_it delta / (eps_i eps0)) */
+  pinningFactor: number;
+  /** electrons gained by the particle and the resulting Fermi-level shift (null without a particle term) */
+  particle: { electronsGained: number; fermiLevelShift_eV: number; effectiveWorkFunction_eV: number } | null;
+  /** residual evaluations used */
+  iterations: number;
+}
+
+/**
+ * Self-consistent barrier with interface states, interfacial layer and space charge (Cowley & Sze 1965):
+ * solves Phi_B = phi_m - N/g_tot - chi + Q_m delta / (eps_i eps0), Q_m = -(Q_sc + Q_it) (extended contact) or
+ * -q N / A_footprint (particle), for the band bending by Brent's method. Limits: D_it -> 0 or delta -> 0 gives the
+ * Schottky–Mott rule; D_it -> infinity pins Phi_B at E_g - phi_0 (Bardeen); negligible Q_sc gives the linear
+ * Phi_B = S (phi_m - chi) + (1 - S)(E_g - phi_0). Throws InputError on bad input, ConvergenceError if the caller's
+ * space charge is not monotone enough to bracket a root.
+ */
+export function solveInterfaceAlignment(input: InterfaceAlignmentInput): InterfaceAlignment {
+  requireInRange('bandGap_eV', input.bandGap_eV, 0.01, 20, 'eV');
+  checkParameters(input, input.bandGap_eV);
+  requireInRange('metalWorkFunction_eV', input.metalWorkFunction_eV, 0, 20, 'eV');
+  requireInRange('electronAffinity_eV', input.electronAffinity_eV, -5, 20, 'eV');
+  requireInRange('fermiLevelBelowConduction_eV', input.fermiLevelBelowConduction_eV, -50, 50, 'eV');
+  if (input.temperature_K !== undefined) requireInRange('temperature_K', input.temperature_K, 1, 5000, 'K');
+  const particle = input.particle;
+  if (particle !== undefined) {
+    requireInRange('particle.densityOfStates_per_eV', particle.densityOfStates_per_eV, 1e-6, 1e12, 'eV^-1');
+    requireInRange('particle.footprintArea_m2', particle.footprintArea_m2, 1e-22, 1, 'm^2');
+    requireInRange('particle.interfaceArea_m2', particle.interfaceArea_m2, 0, 1, 'm^2');
+  }
+  const tolerance = input.tolerance_eV ?? 1e-12;
+  const xiBulk = input.fermiLevelBelowConduction_eV;
+  const gap = input.bandGap_eV;
+  const phi0 = input.neutralLevelAboveValence_eV;
+  const d = input.stateDensity_per_eV_m2;
+  const layer = input.layerThickness_m / (input.layerPermittivity * EPS0_F_PER_M); // V per (C/m^2)
+
+  let evaluations = 0;
+  interface State {
+    residual: number;
+    qsc: number;
+    qit: number;
+    qm: number;
+    electrons: number;
+    shift: number;
+  }
+  function evaluate(v: number): State {
+    evaluations++;
+    const barrier = xiBulk + v;
+    const qsc = input.spaceCharge(v);
+    if (!Number.isFinite(qsc)) throw new RangeError(`spaceCharge(${v}) returned ${qsc}`);
+    const qit = interfaceStateCharge_C_per_m2(barrier, gap, phi0, d, input.temperature_K);
+    let qm: number;
+    let electrons = 0;
+    let shift = 0;
+    if (particle === undefined) {
+      qm = -(qsc + qit);
+    } else {
+      electrons = particleElectrons(qsc, qit, particle.interfaceArea_m2, particle.footprintArea_m2);
+      shift = electrons / particle.densityOfStates_per_eV;
+      qm = (-Q_ELEMENTARY_C * electrons) / particle.footprintArea_m2;
+    }
+    // R = Phi_B - (phi_m - N/g - chi + Q_m delta/(eps_i eps0)); increasing in v
+    const residual = barrier - (input.metalWorkFunction_eV - shift - input.electronAffinity_eV + qm * layer);
+    return { residual, qsc, qit, qm, electrons, shift };
+  }
+
+  // Bracket: at the largest of the Schottky–Mott bending, the pinned bending and 0 every charge term is >= 0, so
+  // R >= 0 there; symmetric at the smallest. Widened if the caller's Q_sc or the band-edge truncation of the
+  // Fermi–Dirac interface states moves the neutral points by a little.
+  const vSchottkyMott = input.metalWorkFunction_eV - input.electronAffinity_eV - xiBulk;
+  const vPinned = gap - phi0 - xiBulk;
+  let lo = Math.min(vSchottkyMott, vPinned, 0) - 1e-3;
+  let hi = Math.max(vSchottkyMott, vPinned, 0) + 1e-3;
+  let fLo = evaluate(lo);
+  let fHi = evaluate(hi);
+  let widen = 0;
+  while (fLo.residual > 0 && widen < 60) {
+    lo -= Math.max(1, Math.abs(lo));
+    fLo = evaluate(lo);
+    widen++;
+  }
+  while (fHi.residual < 0 && widen < 120) {
+    hi += Math.max(1, Math.abs(hi));
+    fHi = evaluate(hi);
+    widen++;
+  }
+  if (!(fLo.residual <= 0 && fHi.residual >= 0)) {
+    throw new ConvergenceError('no bracket for the interface band bending (space charge not monotone?)', evaluations);
+  }
+  const root = brent((v) => evaluate(v).residual, lo, hi, fLo.residual, fHi.residual, tolerance);
+  const state = evaluate(root);
+  const pinningFactor = 1 / (1 + Q_ELEMENTARY_C * d * layer);
+  return {
+    electronBarrier_eV: xiBulk + root,
+    bandBending_eV: root,
+    spaceCharge_C_per_m2: state.qsc,
+    interfaceStateCharge_C_per_m2: state.qit,
+    metalCharge_C_per_m2: state.qm,
+    layerDrop_eV: -state.qm * layer,
+    pinningFactor,
+    particle:
+      particle === undefined
+        ? null
+        : { electronsGained: state.electrons, fermiLevelShift_eV: state.shift, effectiveWorkFunction_eV: input.metalWorkFunction_eV - state.shift },
+    iterations: evaluations,
+  };
+}
+
+/**
+ * Brent's root finder (R. P. Brent, Algorithms for Minimization without Derivatives, Prentice-Hall 1973, ch. 4):
+ * inverse quadratic interpolation / secant, safeguarded by bisection; needs f(a) f(b) <= 0.
+ */
+function brent(f: (x: number) => number, a0: number, b0: number, fa0: number, fb0: number, tolerance: number): number {
+  let a = a0;
+  let b = b0;
+  let fa = fa0;
+  let fb = fb0;
+  if (fa === 0) return a;
+  if (fb === 0) return b;
+  let c = a;
+  let fc = fa;
+  let d = b - a;
+  let e = d;
+  for (let iter = 0; iter < 200; iter++) {
+    if ((fb > 0 && fc > 0) || (fb < 0 && fc < 0)) {
+      c = a;
+      fc = fa;
+      d = b - a;
+      e = d;
+    }
+    if (Math.abs(fc) < Math.abs(fb)) {
+      a = b;
+      b = c;
+      c = a;
+      fa = fb;
+      fb = fc;
+      fc = fa;
+    }
+    const tol = 2 * Number.EPSILON * Math.abs(b) + 0.5 * tolerance;
+    const m = 0.5 * (c - b);
+    if (Math.abs(m) <= tol || fb === 0) return b;
+    if (Math.abs(e) >= tol && Math.abs(fa) > Math.abs(fb)) {
+      const s = fb / fa;
+      let p: number;
+      let q: number;
+      if (a === c) {
+        p = 2 * m * s;
+        q = 1 - s;
+      } else {
+        const qq = fa / fc;
+        const r = fb / fc;
+        p = s * (2 * m * qq * (qq - r) - (b - a) * (r - 1));
+        q = (qq - 1) * (r - 1) * (s - 1);
+      }
+      if (p > 0) q = -q;
+      else p = -p;
+      if (2 * p < Math.min(3 * m * q - Math.abs(tol * q), Math.abs(e * q))) {
+        e = d;
+        d = p / q;
+      } else {
+        d = m;
+        e = m;
+      }
+    } else {
+      d = m;
+      e = m;
+    }
+    a = b;
+    fa = fb;
+    b += Math.abs(d) > tol ? d : m > 0 ? tol : -tol;
+    fb = f(b);
+  }
+  throw new ConvergenceError('Brent iteration limit for the interface band bending', 200);
+}
+
+/** D_it per eV per cm^2 -> per eV per m^2 (x 1e4); for callers reading values quoted in cm^-2 eV^-1. Input >= 0, finite. */
+export function stateDensityFromPerCm2(stateDensity_per_eV_cm2: number): number {
+  if (!Number.isFinite(stateDensity_per_eV_cm2) || stateDensity_per_eV_cm2 < 0) {
+    throw new InputError('stateDensity_per_eV_cm2', 'must be a finite non-negative number', '0 to 1e17 cm^-2 eV^-1');
+  }
+  return stateDensity_per_eV_cm2 * 1e4;
+}
+
+/** Library values of a support (plain numbers read from the PropertyValues of the same names on SupportRecord). */
+export interface InterfaceLibraryValues {
+  chargeNeutralityAboveValence_eV?: number | undefined;
+  pinningFactor?: number | undefined;
+  interfaceLayerThickness_nm?: number | undefined;
+  interfaceLayerPermittivity?: number | undefined;
+  /** eps_inf, for the empirical slope when no pinningFactor is given */
+  opticalPermittivity: number;
+}
+
+export interface InterfaceParametersFromLibrary {
+  parameters: InterfaceStateParameters;
+  pinningFactor: number;
+  pinningFactorOrigin: 'given' | 'empirical';
+  layerOrigin: 'given' | 'default';
+}
+
+/**
+ * Interface-state parameters from library values: D_it from the slope S (given, or the empirical
+ * S = 1/(1 + 0.1 (eps_inf - 1)^2), empiricalPinningFactor in src/barrier/barrier.ts) with the stated layer
+ * (given, or DEFAULT_INTERFACE_LAYER_THICKNESS_M / DEFAULT_INTERFACE_LAYER_PERMITTIVITY). Returns null when the
+ * support has no charge-neutrality level (the interface-state model cannot be used; fall back to `ideal`).
+ */
+export function interfaceParametersFromLibrary(values: InterfaceLibraryValues): InterfaceParametersFromLibrary | null {
+  if (values.chargeNeutralityAboveValence_eV === undefined) return null;
+  const pinningFactorOrigin = values.pinningFactor === undefined ? 'empirical' : 'given';
+  const pinningFactor = values.pinningFactor ?? empiricalPinningFactor(values.opticalPermittivity);
+  const layerGiven = values.interfaceLayerThickness_nm !== undefined || values.interfaceLayerPermittivity !== undefined;
+  const layerThickness_m = values.interfaceLayerThickness_nm === undefined ? DEFAULT_INTERFACE_LAYER_THICKNESS_M : values.interfaceLayerThickness_nm * 1e-9;
+  const layerPermittivity = values.interfaceLayerPermittivity ?? DEFAULT_INTERFACE_LAYER_PERMITTIVITY;
+  return {
+    parameters: {
+      stateDensity_per_eV_m2: interfaceStateDensityFromSlope(pinningFactor, layerThickness_m, layerPermittivity),
+      neutralLevelAboveValence_eV: values.chargeNeutralityAboveValence_eV,
+      layerThickness_m,
+      layerPermittivity,
+    },
+    pinningFactor,
+    pinningFactorOrigin,
+    layerOrigin: layerGiven ? 'given' : 'default',
+  };
+}

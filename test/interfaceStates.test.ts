@@ -1,0 +1,209 @@
+// Interface states solved self-consistently with the space charge (Bardeen 1947; Cowley & Sze, J. Appl. Phys. 36,
+// 3212 (1965)).
+import { describe, expect, it } from 'vitest';
+import {
+  interfaceStateCharge_C_per_m2,
+  interfaceParametersFromLibrary,
+  interfaceStateDensityFromSlope,
+  particleElectrons,
+  pinningFactorFromStates,
+  solveInterfaceAlignment,
+  type InterfaceAlignmentInput,
+} from '../src/interface/interfaceStates.js';
+import { barrierHeight } from '../src/barrier/barrier.js';
+import { makeChargeModel, solveBulkNeutrality } from '../src/bulk/equilibrium.js';
+import { solvePoisson } from '../src/electrostatics/poisson.js';
+import { PLANAR } from '../src/electrostatics/geometry.js';
+import { CODATA2018, boltzmannPlanarCharge, exactPlanarCharge, simpson } from './helpers.js';
+
+const T = 300;
+const kT = (CODATA2018.k * T) / CODATA2018.q;
+const EPS_S = 8.656;
+// ZnO-like support (chi 4.19 eV, Eg 3.37 eV, library values); N_D = 1e17 cm^-3, Boltzmann, fully ionised donors
+const CHI = 4.19;
+const GAP = 3.37;
+const ND = 1e23;
+const NC = 2 * Math.pow((2 * Math.PI * 0.24 * CODATA2018.me * CODATA2018.k * T) / CODATA2018.h ** 2, 1.5);
+const XI_BULK = kT * Math.log(NC / ND); // E_C - E_F, Boltzmann, n = N_D (Sze & Ng ch. 1)
+
+/** exact planar first integral for Boltzmann statistics, fully ionised donors (Sze & Ng ch. 4) */
+const planar = (nd: number) => (v: number): number => boltzmannPlanarCharge(nd, 0, v / kT, EPS_S, T);
+
+function base(overrides: Partial<InterfaceAlignmentInput> = {}): InterfaceAlignmentInput {
+  return {
+    metalWorkFunction_eV: 5.65,
+    electronAffinity_eV: CHI,
+    bandGap_eV: GAP,
+    fermiLevelBelowConduction_eV: XI_BULK,
+    stateDensity_per_eV_m2: 1e17,
+    neutralLevelAboveValence_eV: 2.6,
+    layerThickness_m: 0.5e-9,
+    layerPermittivity: 1,
+    spaceCharge: planar(ND),
+    ...overrides,
+  };
+}
+
+const layerFactor = (delta: number, epsI: number): number => delta / (epsI * CODATA2018.eps0);
+
+describe('limits of the self-consistent interface-state model', () => {
+  it('(a) D_it = 0: Phi_B = phi_m - chi - Q_sc delta/(eps_i eps0) (the layer is a plain capacitor, Gauss), and delta = 0 gives Schottky–Mott exactly', () => {
+    const r = solveInterfaceAlignment(base({ stateDensity_per_eV_m2: 0 }));
+    expect(r.interfaceStateCharge_C_per_m2).toBe(0);
+    expect(r.pinningFactor).toBe(1);
+    expect(r.electronBarrier_eV).toBeCloseTo(5.65 - CHI - r.spaceCharge_C_per_m2 * layerFactor(0.5e-9, 1), 10);
+    expect(r.spaceCharge_C_per_m2).toBeCloseTo(planar(ND)(r.bandBending_eV), 12);
+    expect(r.spaceCharge_C_per_m2 + r.metalCharge_C_per_m2).toBeCloseTo(0, 15);
+    // no layer: vacuum levels aligned at the interface, Schottky–Mott (whatever D_it)
+    for (const d of [0, 1e17, 1e19]) {
+      const sm = solveInterfaceAlignment(base({ stateDensity_per_eV_m2: d, layerThickness_m: 0 }));
+      expect(Math.abs(sm.electronBarrier_eV - (5.65 - CHI))).toBeLessThan(1e-10);
+    }
+  });
+
+  it('(b) D_it -> infinity pins Phi_B at E_g - phi_0 (Bardeen limit); the offset falls as S', () => {
+    const pinned = GAP - 2.6;
+    const offsets = [1e19, 1e20, 1e21].map((d) => solveInterfaceAlignment(base({ stateDensity_per_eV_m2: d })).electronBarrier_eV - pinned);
+    expect(Math.abs(offsets[2]!)).toBeLessThan(2e-3);
+    const s = [1e19, 1e20, 1e21].map((d) => pinningFactorFromStates(d, 0.5e-9, 1));
+    // offset = S (phi_m - chi - (E_g - phi_0) - Q_sc delta/eps) with Q_sc nearly fixed at the pinned bending
+    expect(offsets[1]! / offsets[2]! / (s[1]! / s[2]!)).toBeCloseTo(1, 2);
+  });
+
+  it('(c) negligible space charge: the old linear `pinned` formula Phi_B = S(phi_m - chi) + (1 - S)(E_g - phi_0) (Cowley & Sze), to 1e-6', () => {
+    for (const d of [1e16, 1e17, 3e17, 1e18]) {
+      for (const phiM of [4.3, 5.1, 5.65]) {
+        const r = solveInterfaceAlignment(base({ stateDensity_per_eV_m2: d, metalWorkFunction_eV: phiM, spaceCharge: () => 0 }));
+        const S = 1 / (1 + (CODATA2018.q * d * 0.5e-9) / CODATA2018.eps0);
+        const old = barrierHeight({
+          model: 'pinned',
+          metalWorkFunction_eV: phiM,
+          electronAffinity_eV: CHI,
+          bandGap_eV: GAP,
+          opticalPermittivity: 3.7,
+          carrier: 'electron',
+          pinningFactor: S,
+          neutralLevel_eV: CHI + GAP - 2.6, // CNL below the vacuum level
+        });
+        expect(Math.abs(r.electronBarrier_eV - old.electronBarrier_eV)).toBeLessThan(1e-6);
+        expect(r.pinningFactor).toBeCloseTo(S, 12);
+      }
+    }
+    // a real but nearly undoped insulator (intrinsic, 6 eV gap): the exact planar space charge is negligible
+    const insulator = (v: number): number => boltzmannPlanarCharge(1e-20, 1e-20, v / kT, 10, T);
+    const r = solveInterfaceAlignment(base({ bandGap_eV: 6, fermiLevelBelowConduction_eV: 3, spaceCharge: insulator, neutralLevelAboveValence_eV: 3.5 }));
+    const S = pinningFactorFromStates(1e17, 0.5e-9, 1);
+    expect(Math.abs(r.electronBarrier_eV - (S * (5.65 - CHI) + (1 - S) * (6 - 3.5)))).toBeLessThan(1e-6);
+  });
+
+  it('(d) the slope dPhi_B/dphi_m over two metals equals S when the space charge is negligible', () => {
+    for (const d of [3e16, 2e17, 2e18]) {
+      const a = solveInterfaceAlignment(base({ stateDensity_per_eV_m2: d, metalWorkFunction_eV: 4.5, spaceCharge: () => 0 }));
+      const b = solveInterfaceAlignment(base({ stateDensity_per_eV_m2: d, metalWorkFunction_eV: 5.6, spaceCharge: () => 0 }));
+      expect((b.electronBarrier_eV - a.electronBarrier_eV) / 1.1 / a.pinningFactor).toBeCloseTo(1, 9);
+    }
+  });
+
+  it('(e) with depletion-approximation space charge: the Cowley–Sze quadratic closed form (Sze & Ng, 3rd ed., sec. 3.2.4)', () => {
+    // Q_sc = sqrt(2 q eps_s eps0 N_D (V - kT)); Phi = A - S k sqrt(Phi - xi - kT), A = S(phi_m - chi) + (1-S)(E_g - phi_0),
+    // k = (delta / (eps_i eps0)) sqrt(2 q eps_s eps0 N_D); with w = sqrt(Phi - xi - kT): w^2 + S k w - (A - xi - kT) = 0
+    for (const nd of [1e22, 1e24, 1e25]) {
+      const xi = kT * Math.log(NC / nd);
+      const c = Math.sqrt(2 * CODATA2018.q * EPS_S * CODATA2018.eps0 * nd);
+      const depletion = (v: number): number => Math.sign(v - kT) * c * Math.sqrt(Math.abs(v - kT));
+      const d = 2e17;
+      const S = 1 / (1 + (CODATA2018.q * d * 0.5e-9) / CODATA2018.eps0);
+      const k = layerFactor(0.5e-9, 1) * c;
+      const A = S * (5.65 - CHI) + (1 - S) * (GAP - 2.6);
+      const w = (-S * k + Math.sqrt(S * S * k * k + 4 * (A - xi - kT))) / 2;
+      const r = solveInterfaceAlignment(base({ stateDensity_per_eV_m2: d, fermiLevelBelowConduction_eV: xi, spaceCharge: depletion }));
+      expect(Math.abs(r.electronBarrier_eV - (w * w + xi + kT))).toBeLessThan(1e-10);
+      // charge balance and the layer drop Delta = -Q_m delta/(eps_i eps0) = phi_m - chi - Phi_B
+      expect(r.metalCharge_C_per_m2 + r.spaceCharge_C_per_m2 + r.interfaceStateCharge_C_per_m2).toBeCloseTo(0, 14);
+      expect(r.layerDrop_eV).toBeCloseTo(5.65 - CHI - r.electronBarrier_eV, 10);
+    }
+  });
+
+  it('a low work-function metal (accumulation, negative band bending) converges and keeps the signs', () => {
+    const r = solveInterfaceAlignment(base({ metalWorkFunction_eV: 3.5, stateDensity_per_eV_m2: 1e16 }));
+    expect(r.bandBending_eV).toBeLessThan(0);
+    expect(r.spaceCharge_C_per_m2).toBeLessThan(0);
+    expect(r.iterations).toBeLessThan(60);
+  });
+});
+
+describe('with the project Poisson solver as the space charge (how the pipeline will call it)', () => {
+  it('Fermi–Dirac ZnO-like support with partially ionised donors: barrier within 1e-6 eV of the exact-first-integral alignment', () => {
+    const support = {
+      temperature_K: T,
+      bandGap_eV: GAP,
+      electronMass_me: 0.24,
+      holeMass_me: 0.59,
+      donors: { density_m3: 1e24, kind: 'single' as const, level1_eV: 0.054 },
+      acceptors: { density_m3: 0 },
+      statistics: 'fermi-dirac' as const,
+    };
+    const model = makeChargeModel(support);
+    const bulk = solveBulkNeutrality(model);
+    const poisson = (v: number): number =>
+      v === 0
+        ? 0
+        : solvePoisson({ model, bulkReducedFermiLevel: bulk.reducedFermiLevel, surfaceBending: v / model.kT_eV, relativePermittivity: EPS_S, temperature_K: T, geometry: PLANAR })
+            .totalCharge_C;
+    const common = { fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV, stateDensity_per_eV_m2: 5e16 };
+    const numeric = solveInterfaceAlignment(base({ ...common, spaceCharge: poisson }));
+    const exact = solveInterfaceAlignment(base({ ...common, spaceCharge: (v) => exactPlanarCharge(support, EPS_S, v) }));
+    expect(Math.abs(numeric.electronBarrier_eV - exact.electronBarrier_eV)).toBeLessThan(1e-6);
+    expect(numeric.iterations).toBeLessThan(30);
+  });
+});
+
+describe('interface-state charge and the slope/density relation', () => {
+  it('Fermi–Dirac occupancy over a uniform density in the gap: closed form equals Simpson quadrature', () => {
+    const d = 1e17;
+    const Tk = 900;
+    const kTh = (CODATA2018.k * Tk) / CODATA2018.q;
+    for (const barrier of [-0.1, 0.02, 0.7, 1.6, 3.3, 3.45]) {
+      const mu = GAP - barrier; // E_F - E_V(0)
+      const f = (e: number): number => 1 / (1 + Math.exp((e - mu) / kTh));
+      // Q/qD = (empty states below phi_0) - (filled states above phi_0)
+      const ref = simpson((e) => 1 - f(e), 0, 2.6, 20000) - simpson(f, 2.6, GAP, 20000);
+      expect(interfaceStateCharge_C_per_m2(barrier, GAP, 2.6, d, Tk) / (CODATA2018.q * d)).toBeCloseTo(ref, 8);
+    }
+    // zero temperature: q D (Phi_B - (E_g - phi_0)) inside the gap
+    expect(interfaceStateCharge_C_per_m2(1.0, GAP, 2.6, d) / (CODATA2018.q * d)).toBeCloseTo(1.0 - (GAP - 2.6), 12);
+  });
+
+  it('D_it from S: S = 0.29 (rutile, from eps_inf ~ 6 with the empirical relation), delta 0.5 nm, eps_i 1 -> 2.7e13 cm^-2 eV^-1', () => {
+    const d = interfaceStateDensityFromSlope(0.29, 0.5e-9, 1);
+    const expected = ((1 / 0.29 - 1) * CODATA2018.eps0) / (CODATA2018.q * 0.5e-9);
+    expect(d / expected).toBeCloseTo(1, 6);
+    expect(d * 1e-4).toBeGreaterThan(2.6e13);
+    expect(d * 1e-4).toBeLessThan(2.8e13);
+    expect(pinningFactorFromStates(d, 0.5e-9, 1)).toBeCloseTo(0.29, 12);
+    expect(interfaceStateDensityFromSlope(1)).toBe(0);
+  });
+
+  it('library values: rutile eps_inf 6.0 -> empirical S = 0.29 (evidence sheet, derived with the Mönch relation), default layer; null without a CNL', () => {
+    const lib = interfaceParametersFromLibrary({ chargeNeutralityAboveValence_eV: 2.2, opticalPermittivity: 6.0 })!;
+    expect(lib.pinningFactorOrigin).toBe('empirical');
+    expect(lib.pinningFactor).toBeCloseTo(0.29, 2);
+    expect(lib.layerOrigin).toBe('default');
+    expect(pinningFactorFromStates(lib.parameters.stateDensity_per_eV_m2, lib.parameters.layerThickness_m, lib.parameters.layerPermittivity)).toBeCloseTo(lib.pinningFactor, 12);
+    const given = interfaceParametersFromLibrary({ chargeNeutralityAboveValence_eV: 2.2, opticalPermittivity: 6.0, pinningFactor: 0.56, interfaceLayerThickness_nm: 0.3, interfaceLayerPermittivity: 2 })!;
+    expect(given.pinningFactorOrigin).toBe('given');
+    expect(given.parameters.layerThickness_m).toBeCloseTo(0.3e-9, 20);
+    expect(pinningFactorFromStates(given.parameters.stateDensity_per_eV_m2, 0.3e-9, 2)).toBeCloseTo(0.56, 12);
+    expect(interfaceParametersFromLibrary({ opticalPermittivity: 6.0 })).toBeNull();
+  });
+
+  it('particle charge helper: N = (Q_sc A_interface + Q_it A_footprint)/q', () => {
+    expect(particleElectrons(CODATA2018.q * 1e17, -CODATA2018.q * 2e16, 2e-17, 1e-17)).toBeCloseTo(2 - 0.2, 12);
+  });
+
+  it('rejects bad input with InputError', () => {
+    expect(() => solveInterfaceAlignment(base({ layerPermittivity: 0.5 }))).toThrow(/layerPermittivity/);
+    expect(() => solveInterfaceAlignment(base({ neutralLevelAboveValence_eV: 5 }))).toThrow(/neutralLevel/);
+    expect(() => interfaceStateDensityFromSlope(0)).toThrow(/pinningFactor/);
+  });
+});
