@@ -16,7 +16,7 @@ import {
   type VacancySystem,
 } from '../src/bulk/defectChemistry.js';
 import { effectiveDensityOfStates_m3 } from '../src/bulk/equilibrium.js';
-import { frozenInDonorDensity, vacancyDonorDensity, vacancyDonorDensityFromHydrogen } from '../src/inputs/pretreatment.js';
+import { frozenInDonorDensity, vacancyDonorDensityFromHydrogen, waterGibbsFormation_kJ_mol } from '../src/inputs/pretreatment.js';
 import { K_BOLTZMANN_EV_PER_K, R_GAS_J_PER_MOL_K } from '../src/constants.js';
 import { InputError } from '../src/errors.js';
 
@@ -184,6 +184,29 @@ describe("the 'reduction' convention reproduces src/inputs/pretreatment.ts (libr
       expect(s.electrons_cm3 / old.donorDensity_cm3).toBeCloseTo(1, 9);
       expect(s.vacancies.doublyIonised_cm3).toBe(s.vacancies.total_cm3);
     }
+  });
+
+  it('with levels, equals the neutral convention with H0 = H_red - d1 - d2, S0 = S_red - 2 ln(N_C/N_O)', () => {
+    // Hess's law: reduction = neutral-vacancy formation + two ionisations into the band (Kröger 1964; Smyth 2000);
+    // the entropy shift is the electron site-count change of the site-fraction convention at this temperature.
+    const t = 900;
+    const levels = { donorLevel1_eV: 0.05, donorLevel2_eV: 0.15 };
+    const withLevels: VacancySystem = { ...ceria, formation: { kind: 'reduction', enthalpy_eV: 4.44, entropy_kB: 9.45, ...levels } };
+    const nc = effectiveDensityOfStates_m3(1, t) * 1e-6;
+    const neutral: VacancySystem = {
+      ...ceria,
+      formation: { kind: 'neutral', enthalpy_eV: 4.44 - 0.2, entropy_kB: 9.45 - 2 * Math.log(nc / 5.05e22), ...levels },
+    };
+    const gas: ReactionGas = { kind: 'H2/H2O', hydrogenToWater: 1 };
+    const a = equilibrateVacancies(withLevels, { temperature_K: t, gas });
+    const b = equilibrateVacancies(neutral, { temperature_K: t, gas });
+    for (const key of ['neutral_cm3', 'singlyIonised_cm3', 'doublyIonised_cm3'] as const) {
+      expect(a.vacancies[key] / b.vacancies[key]).toBeCloseTo(1, 9);
+    }
+    expect(a.vacancies.neutral_cm3 / a.vacancies.total_cm3).toBeGreaterThan(1e-3);
+    // the levels add V+ and V0 states at the same oxygen potential: the vacancy charge is larger at every E_F, so the
+    // neutral E_F and n rise over the doubly-ionised-only model
+    expect(a.electrons_cm3).toBeGreaterThan(equilibrateVacancies(ceria, { temperature_K: t, gas }).electrons_cm3);
   });
 
   it('frozen history: reduction at 773 K sets the vacancies used at 473 K, as frozenInDonorDensity', () => {
@@ -433,9 +456,12 @@ describe('overlayerDefects (oxide film on a metal)', () => {
 });
 
 describe('consistency with the pretreatment module', () => {
-  it('pretreatment still uses the same water table', () => {
-    // vacancyDonorDensity is unchanged; the shared table gives the same 1000 K value
-    expect(vacancyDonorDensity({ enthalpy_eV: 4, entropy_kB: 10, oxygenSites_cm3: 5e22, temperature_K: 1000, oxygenPressure_bar: 1e-20 }).donorDensity_cm3).toBeGreaterThan(0);
-    expect(gasGibbsFormation_kJ_mol('H2O', 950)).toBeCloseTo((-198.083 + -192.59) / 2, 9);
+  it('shares the water table: same values to 1500 K, the new range extends to 2100 K', () => {
+    for (const t of [298, 298.15, 450, 1000, 1234, 1500]) {
+      expect(waterGibbsFormation_kJ_mol(t)).toBe(gasGibbsFormation_kJ_mol('H2O', t));
+    }
+    expect(() => waterGibbsFormation_kJ_mol(1600)).toThrow(/temperature_K/);
+    // JANAF H-064 at 1600 K: -158.639 kJ/mol (Chase 1998, matched in two public transcriptions)
+    expect(gasGibbsFormation_kJ_mol('H2O', 1600)).toBeCloseTo(-158.639, 6);
   });
 });
