@@ -36,7 +36,8 @@ export type GasSpecies = 'H2O' | 'CO' | 'CO2';
  * C-093 (CO) and C-095 (CO2), column delta-f G°. Not read in the monograph itself: every row was matched against
  * public transcriptions of the tables found with the project's search tool (H2O to 1500 K: every row matched at least
  * one transcription to the last digit, most two or three; one other transcription differs by up to 0.011 kJ/mol at
- * 800, 900 and 1400 K, a CRC-Handbook-derived table by up to 0.05 kJ/mol above 800 K. H2O 1600-2100 K, CO and CO2: a transcription labelled by JANAF table number
+ * 800, 900 and 1400 K, a CRC-Handbook-derived table by up to 0.05 kJ/mol above 800 K. H2O 1600-2100 K: a complete
+ * copy of table H-064 and a transcription labelled by table number. CO and CO2: a transcription labelled by JANAF table number
  * at 300, 500, ..., 2100 K, and a second at 800-1800 K in 100 K steps; CO2 400 and 600 K and CO 298.15 K from one
  * transcription only). The 1000 K rows (H2O -192.590, CO -200.275, CO2 -395.886 kJ/mol) agree in every copy seen
  * and with the tables' log Kf column (10.060, 10.461, 20.679). CO has no row at 400 and 600 K here (no copy seen):
@@ -606,7 +607,9 @@ export interface HistoryOptions extends DiluteOptions {
    * them), then stay fixed; electrons redistribute at the last step's temperature.
    * 'equilibrated': the vacancies are in equilibrium with the last step's gas at its temperature.
    * 'kinetic': each step moves the mean vacancy density toward that step's equilibrium by the fraction
-   * equilibratedFraction(D t / L^2) (needs kinetics).
+   * equilibratedFraction(D t / L^2) (needs kinetics). This treats re-equilibration as linear diffusion with a
+   * constant D and a uniform start in every step (Crank's solutions), a screening estimate: D depends on the
+   * vacancy concentration, and a profile left by one step is not uniform at the start of the next.
    */
   mode: 'frozen' | 'equilibrated' | 'kinetic';
   kinetics?: HistoryKinetics | undefined;
@@ -670,6 +673,7 @@ export function vacancyHistory(system: VacancySystem, steps: HistoryStep[], opti
       // mean density relaxes toward this step's equilibrium: c = c_eq + (c_prev - c_eq)(1 - F)  (Crank, linear diffusion)
       vacancies = eq + (vacancies - eq) * (1 - fraction!);
     } else if (options.mode === 'frozen') {
+      // running maximum: a step at least as hot as every earlier one re-sets the vacancies (the later of equals wins)
       if (step.temperature_K >= highest) {
         highest = step.temperature_K;
         vacancies = eq;
