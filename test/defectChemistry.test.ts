@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import {
   DILUTE_LIMIT_SITE_FRACTION,
   equilibrateVacancies,
@@ -136,6 +137,36 @@ describe('detailed balance and charge neutrality', () => {
       expect(s.vacancies.doublyIonised_cm3 / s.vacancies.total_cm3).toBeGreaterThan(1e-6);
     });
   }
+
+  it('property: neutrality closes and -1/2 <= d ln[V]/d ln pO2 <= 0 for any levels, dopants, T and gas', () => {
+    // [V] = [V0] h(E_F) with [V0] ~ pO2^(-1/2) and h falling as E_F rises (Kröger 1964): lowering pO2 raises E_F, so
+    // the slope is at least -1/2; and h/q (total over charge per [V0]) rises with E_F, so the total never falls.
+    fc.assert(
+      fc.property(
+        fc.record({
+          h: fc.double({ min: 2, max: 7, noNaN: true }),
+          s: fc.double({ min: -2, max: 8, noNaN: true }),
+          d1: fc.double({ min: 0, max: 2, noNaN: true }),
+          d2: fc.double({ min: 0, max: 3, noNaN: true }),
+          na: fc.double({ min: 10, max: 19, noNaN: true }),
+          nd: fc.double({ min: 10, max: 19, noNaN: true }),
+          t: fc.double({ min: 500, max: 1500, noNaN: true }),
+          lp: fc.double({ min: -25, max: 0, noNaN: true }),
+        }),
+        ({ h, s, d1, d2, na, nd, t, lp }) => {
+          const sys: VacancySystem = {
+            ...neutralSystem(h, s, d1, d2, { acceptors_cm3: 10 ** na, donors_cm3: 10 ** nd }),
+            band: { bandGap_eV: 3.2, electronMass_me: 0.3, holeMass_me: 2 },
+          };
+          const run = (x: number) => equilibrateVacancies(sys, { temperature_K: t, gas: o2(10 ** x) }, { beyondDiluteLimit: 'flag' });
+          const a = run(lp);
+          const b = run(lp - 1);
+          const slopeTotal = -(Math.log10(b.vacancies.total_cm3) - Math.log10(a.vacancies.total_cm3));
+          return chargeResidual(a) < 1e-8 && slopeTotal >= -0.5 - 1e-7 && slopeTotal <= 1e-7;
+        },
+      ),
+    );
+  });
 
   it('frozen vacancies redistribute electrons but keep their number', () => {
     const hot = equilibrateVacancies(sys, { temperature_K: T, gas: o2(1e-15) });
