@@ -10,6 +10,7 @@ import {
   oxygenActivity,
   reequilibrationTime_s,
   vacanciesFromStoichiometry,
+  vacancyChargeModel,
   vacancyHistory,
   type DefectState,
   type DiffusionCoefficient,
@@ -166,6 +167,29 @@ describe('detailed balance and charge neutrality', () => {
         },
       ),
     );
+  });
+
+  it('charge model for a space-charge solve: netCharge vanishes at the bulk E_F, its slope is the derivative and <= 0', () => {
+    // the contract of ChargeModel.netCharge (DEVELOPERS.md, "A defect type"), checked by central differences
+    const out = new Float64Array(2);
+    const up = new Float64Array(2);
+    const down = new Float64Array(2);
+    const populations: Array<{ gas: ReactionGas } | { vacancies_cm3: number }> = [{ gas: o2(1e-12) }, { vacancies_cm3: 1e18 }];
+    for (const population of populations) {
+      const { model } = vacancyChargeModel(sys, 800, population);
+      const state = 'gas' in population ? equilibrateVacancies(sys, { temperature_K: 800, gas: population.gas }) : freezeVacancies(sys, { temperature_K: 800, ...population });
+      const xi0 = state.reducedFermiLevel;
+      model.netCharge(xi0, out);
+      expect(Math.abs(out[0]!) / ((state.electrons_cm3 + state.ionisedBackgroundAcceptors_cm3) * 1e6)).toBeLessThan(1e-9);
+      for (const xi of [xi0 - 5, xi0, xi0 + 3]) {
+        const h = 1e-5;
+        model.netCharge(xi, out);
+        model.netCharge(xi + h, up);
+        model.netCharge(xi - h, down);
+        expect(out[1]!).toBeLessThan(0);
+        expect((up[0]! - down[0]!) / (2 * h) / out[1]!).toBeCloseTo(1, 5);
+      }
+    }
   });
 
   it('frozen vacancies redistribute electrons but keep their number', () => {

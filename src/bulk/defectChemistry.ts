@@ -467,6 +467,30 @@ function assembleState(
   };
 }
 
+/**
+ * The charge model (src/bulk/equilibrium.ts interface) of the support with its background dopants and oxygen
+ * vacancies at temperature_K, for the bulk neutrality solve or a space-charge (Poisson) solve:
+ * - { gas }: vacancies exchanging oxygen with the gas (open; their number follows E_F locally),
+ * - { vacancies_cm3 }: a fixed vacancy density whose charge states follow E_F (frozen).
+ */
+export function vacancyChargeModel(
+  system: VacancySystem,
+  temperature_K: number,
+  population: { gas: ReactionGas } | { vacancies_cm3: number },
+): { model: ChargeModel; reservoir: VacancyReservoir; log10OxygenPressure_bar: number | null } {
+  validateSystem(system);
+  requireInRange('temperature_K', temperature_K, 'gas' in population ? 200 : 1, 2500, 'K');
+  const base = baseModel(system, temperature_K);
+  if ('gas' in population) {
+    const activity = oxygenActivity(population.gas, temperature_K);
+    const reservoir = openReservoir(system, base.kT_eV, base.conductionDos_m3, activity.lnOxygenPressure);
+    return { model: withVacancies(base, system.formation, reservoir), reservoir, log10OxygenPressure_bar: activity.log10OxygenPressure_bar };
+  }
+  requireInRange('vacancies_cm3', population.vacancies_cm3, 0, system.oxygenSites_cm3, 'cm^-3');
+  const reservoir: VacancyReservoir = { kind: 'closed', total_m3: population.vacancies_cm3 * M3_PER_CM3 };
+  return { model: withVacancies(base, system.formation, reservoir), reservoir, log10OxygenPressure_bar: null };
+}
+
 export interface EquilibriumConditions {
   temperature_K: number;
   gas: ReactionGas;
@@ -480,13 +504,8 @@ export interface EquilibriumConditions {
  * V2+ and electrons dominate, pO2^(-1/4) for V+ and electrons, pO2^(-1/2) for neutral vacancies or a fixed n.
  */
 export function equilibrateVacancies(system: VacancySystem, conditions: EquilibriumConditions, options: DiluteOptions = {}): DefectState {
-  validateSystem(system);
-  const temperature_K = requireInRange('temperature_K', conditions.temperature_K, 200, 2500, 'K');
-  const activity = oxygenActivity(conditions.gas, temperature_K);
-  const base = baseModel(system, temperature_K);
-  const reservoir = openReservoir(system, base.kT_eV, base.conductionDos_m3, activity.lnOxygenPressure);
-  const model = withVacancies(base, system.formation, reservoir);
-  return assembleState(system, model, reservoir, temperature_K, activity.log10OxygenPressure_bar, options, 'gas');
+  const { model, reservoir, log10OxygenPressure_bar } = vacancyChargeModel(system, conditions.temperature_K, { gas: conditions.gas });
+  return assembleState(system, model, reservoir, conditions.temperature_K, log10OxygenPressure_bar, options, 'gas');
 }
 
 /**
@@ -494,13 +513,8 @@ export function equilibrateVacancies(system: VacancySystem, conditions: Equilibr
  * at temperature_K, with E_F from charge neutrality. Electrons redistribute; oxygen does not.
  */
 export function freezeVacancies(system: VacancySystem, frozen: { temperature_K: number; vacancies_cm3: number }, options: DiluteOptions = {}): DefectState {
-  validateSystem(system);
-  const temperature_K = requireInRange('temperature_K', frozen.temperature_K, 1, 2500, 'K');
-  requireInRange('vacancies_cm3', frozen.vacancies_cm3, 0, system.oxygenSites_cm3, 'cm^-3');
-  const base = baseModel(system, temperature_K);
-  const reservoir: VacancyReservoir = { kind: 'closed', total_m3: frozen.vacancies_cm3 * M3_PER_CM3 };
-  const model = withVacancies(base, system.formation, reservoir);
-  return assembleState(system, model, reservoir, temperature_K, null, options, 'vacancies_cm3');
+  const { model, reservoir } = vacancyChargeModel(system, frozen.temperature_K, { vacancies_cm3: frozen.vacancies_cm3 });
+  return assembleState(system, model, reservoir, frozen.temperature_K, null, options, 'vacancies_cm3');
 }
 
 // ---------------------------------------------------------------------------------------------------------------
