@@ -2,12 +2,10 @@
 // oxygen partial pressure of an H2/H2O mixture. Screening estimates for catalyst design, not process data.
 import { K_BOLTZMANN_EV_PER_K, R_GAS_J_PER_MOL_K } from '../constants.js';
 import { InputError, requireInRange } from '../errors.js';
+import { DILUTE_LIMIT_SITE_FRACTION, JANAF_GIBBS_FORMATION_KJ_MOL, gasGibbsFormation_kJ_mol } from '../bulk/defectChemistry.js';
 
-/**
- * Largest vacancy site fraction for which the ideal-dilute mass-action law is trusted. Beyond about 10 % of
- * oxygen sites, vacancies interact and order, and the oxide may transform to another phase.
- */
-export const DILUTE_LIMIT_SITE_FRACTION = 0.1;
+// Shared with the general defect chemistry (src/bulk/defectChemistry.ts), which holds the data.
+export { DILUTE_LIMIT_SITE_FRACTION } from '../bulk/defectChemistry.js';
 
 export interface VacancyEquilibriumInput {
   /** reduction enthalpy per vacancy of O_O^x = V_O^(2+) + 2e' + 1/2 O2(g), eV */
@@ -88,30 +86,12 @@ export function vacancyDonorDensity(input: VacancyEquilibriumInput, options: Vac
 }
 
 /**
- * Standard Gibbs energy of formation of H2O(g), kJ/mol, 1 bar standard state.
- * Source: NIST-JANAF Thermochemical Tables, 4th ed. (M. W. Chase, J. Phys. Chem. Ref. Data Monograph 9,
- * 1998), table H-064, column delta-f G°. Written from memory, then checked against public transcriptions
- * of table H-064 found with the project's search tool (not the monograph itself): every row matched at
- * least one transcription to the last digit, most rows two or three. One other transcription differs by
- * up to 0.011 kJ/mol at 800, 900 and 1400 K, and a CRC-Handbook-derived table by up to 0.05 kJ/mol above
- * 800 K. Verify against the printed monograph before relying on the third decimal.
+ * Standard Gibbs energy of formation of H2O(g), kJ/mol, 1 bar standard state, 298.15-1500 K: the rows of NIST-JANAF
+ * table H-064 (M. W. Chase, NIST-JANAF Thermochemical Tables, 4th ed., J. Phys. Chem. Ref. Data Monograph 9, 1998)
+ * held in src/bulk/defectChemistry.ts (JANAF_GIBBS_FORMATION_KJ_MOL.H2O, which documents how they were checked).
  */
-export const WATER_GAS_GIBBS_FORMATION_KJ_MOL: ReadonlyArray<readonly [temperature_K: number, deltaG_kJ_mol: number]> = [
-  [298.15, -228.582],
-  [300, -228.5],
-  [400, -223.901],
-  [500, -219.051],
-  [600, -214.007],
-  [700, -208.812],
-  [800, -203.496],
-  [900, -198.083],
-  [1000, -192.59],
-  [1100, -187.033],
-  [1200, -181.425],
-  [1300, -175.774],
-  [1400, -170.089],
-  [1500, -164.376],
-];
+export const WATER_GAS_GIBBS_FORMATION_KJ_MOL: ReadonlyArray<readonly [temperature_K: number, deltaG_kJ_mol: number]> =
+  JANAF_GIBBS_FORMATION_KJ_MOL.H2O.filter(([t]) => t <= 1500);
 
 /** Lowest temperature accepted: 298 K, so "298 K" from a user is not rejected for 0.15 K. */
 export const WATER_TABLE_MIN_K = 298;
@@ -124,12 +104,7 @@ export const WATER_TABLE_MAX_K = 1500;
  */
 export function waterGibbsFormation_kJ_mol(temperature_K: number): number {
   requireInRange('temperature_K', temperature_K, WATER_TABLE_MIN_K, WATER_TABLE_MAX_K, 'K');
-  const table = WATER_GAS_GIBBS_FORMATION_KJ_MOL;
-  let index = 0;
-  while (index < table.length - 2 && temperature_K > table[index + 1]![0]) index++;
-  const [t0, g0] = table[index]!;
-  const [t1, g1] = table[index + 1]!;
-  return g0 + ((g1 - g0) * (temperature_K - t0)) / (t1 - t0);
+  return gasGibbsFormation_kJ_mol('H2O', temperature_K);
 }
 
 export interface HydrogenWaterInput {
