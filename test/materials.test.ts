@@ -110,10 +110,12 @@ describe('spot checks against published values', () => {
   test('polycrystalline work functions', () => {
     // Ag 4.26 eV: polycrystalline silver, stated with the CRC Handbook 2008 table (p. 12-124) in its encyclopedia copy (read)
     expect(wf('Ag').value).toBe(4.26);
-    // Pt 5.65 eV: from memory of Michaelson, J. Appl. Phys. 48, 4729 (1977), verify (flagged fromMemory)
+    // Pt 5.65 eV: Michaelson, J. Appl. Phys. 48, 4729 (1977), read in a public copy that attributes its table to
+    // Michaelson (the paper's table itself not read); Fe and V stay flagged fromMemory
     expect(wf('Pt').value).toBe(5.65);
-    expect(wf('Pt').fromMemory).toBe(true);
-    // Au 5.10, Cu 4.65, W 4.55: from memory of Michaelson 1977, verify
+    expect(wf('Pt').fromMemory).toBe(false);
+    expect(wf('Fe').fromMemory).toBe(true);
+    // Au 5.10, Cu 4.65, W 4.55: Michaelson 1977 (same copy)
     expect([wf('Au').value, wf('Cu').value, wf('W').value]).toEqual([5.1, 4.65, 4.55]);
     // Ru 4.71, Rh 4.98: CRC Handbook 2008 single values (encyclopedia copy, as recorded in the evidence sheet)
     expect([wf('Ru').value, wf('Rh').value]).toEqual([4.71, 4.98]);
@@ -376,7 +378,9 @@ describe('citations and provenance', () => {
   test('provenanceOf', () => {
     const pt = lib.metals.get('Pt')!;
     const p = provenanceOf(lib, 'metal.workFunction', pt.workFunction_eV, 'eV');
-    expect(p).toMatchObject({ field: 'metal.workFunction', value: 5.65, unit: 'eV', min: 5.12, max: 5.93, origin: 'library', source: 'michaelson1977', fromMemory: true });
+    expect(p).toMatchObject({ field: 'metal.workFunction', value: 5.65, unit: 'eV', min: 5.12, max: 5.93, origin: 'library', source: 'michaelson1977', fromMemory: false });
+    // a value that is still unverified says so in its provenance
+    expect(provenanceOf(lib, 'metal.workFunction', lib.metals.get('Fe')!.workFunction_eV, 'eV').fromMemory).toBe(true);
     expect(p.citation).toBe('Michaelson, J. Appl. Phys. 48, 4729 (1977), doi:10.1063/1.323539');
   });
 });
@@ -526,9 +530,10 @@ describe('third survey: coverage rules', () => {
     const all = verifiedShare(allRecords);
     // values that claim a literature source (ASSUMED modelling values excluded)
     const literature = verifiedShare(allRecords, (pv) => pv.source.startsWith('bandbend-assumed'));
-    // 0.488 before the third survey (117 of 240); the survey's target of 0.75 was not reached (materials/README.md)
-    expect(all).toBeGreaterThan(0.6);
-    expect(literature).toBeGreaterThan(all);
+    // 0.488 before the third survey (117 of 240); the survey's target of 0.75 of all values was not reached
+    // (0.65 of all values, 0.77 of the values that claim a literature source; materials/README.md)
+    expect(all).toBeGreaterThan(0.64);
+    expect(literature).toBeGreaterThanOrEqual(0.75);
   });
 
   test('the new supports load, with the values read', () => {
