@@ -83,7 +83,8 @@ describe('built-in library: schema and provenance', () => {
     for (const s of lib.supports.values()) {
       expect(s.opticalPermittivity.value, s.name).toBeLessThanOrEqual(s.staticPermittivity.value);
       if (s.acceptor) expect(s.conductionType, s.name).toBe('p');
-      if (s.donor) expect(s.conductionType, s.name).toBe('n');
+      // a donor may be given for an insulator too (F centres of MgO); never for a p-type support
+      if (s.donor) expect(['n', 'insulator'], s.name).toContain(s.conductionType);
       if (s.neutralLevel_eV) {
         // a charge-neutrality level below vacuum lies between the conduction and valence band edges
         expect(s.neutralLevel_eV.value, s.name).toBeGreaterThanOrEqual(s.electronAffinity_eV.value);
@@ -109,10 +110,12 @@ describe('spot checks against published values', () => {
   test('polycrystalline work functions', () => {
     // Ag 4.26 eV: polycrystalline silver, stated with the CRC Handbook 2008 table (p. 12-124) in its encyclopedia copy (read)
     expect(wf('Ag').value).toBe(4.26);
-    // Pt 5.65 eV: from memory of Michaelson, J. Appl. Phys. 48, 4729 (1977), verify (flagged fromMemory)
+    // Pt 5.65 eV: Michaelson, J. Appl. Phys. 48, 4729 (1977), read in a public copy that attributes its table to
+    // Michaelson (the paper's table itself not read); Fe and V stay flagged fromMemory
     expect(wf('Pt').value).toBe(5.65);
-    expect(wf('Pt').fromMemory).toBe(true);
-    // Au 5.10, Cu 4.65, W 4.55: from memory of Michaelson 1977, verify
+    expect(wf('Pt').fromMemory).toBe(false);
+    expect(wf('Fe').fromMemory).toBe(true);
+    // Au 5.10, Cu 4.65, W 4.55: Michaelson 1977 (same copy)
     expect([wf('Au').value, wf('Cu').value, wf('W').value]).toEqual([5.1, 4.65, 4.55]);
     // Ru 4.71, Rh 4.98: CRC Handbook 2008 single values (encyclopedia copy, as recorded in the evidence sheet)
     expect([wf('Ru').value, wf('Rh').value]).toEqual([4.71, 4.98]);
@@ -174,9 +177,10 @@ describe('spot checks against published values', () => {
   });
 
   test('band edges from Xu & Schoonen (2000) (transcriptions of their table)', () => {
-    // calculated conduction-band edges on the vacuum scale: ZnO 4.19, SnO2 4.50, Fe2O3 4.78, NiO 4.00, Cu2O 4.22
+    // calculated conduction-band edges on the vacuum scale: ZnO 4.19, SnO2 4.50, Fe2O3 4.78, Cu2O 4.22
+    // (NiO's 4.00 was replaced by a photoemission-based value, tested below)
     const s = (n: string) => lib.supports.get(n)!.electronAffinity_eV.value;
-    expect([s('ZnO'), s('SnO2'), s('Fe2O3'), s('NiO'), s('Cu2O')]).toEqual([4.19, 4.5, 4.78, 4.0, 4.22]);
+    expect([s('ZnO'), s('SnO2'), s('Fe2O3'), s('Cu2O')]).toEqual([4.19, 4.5, 4.78, 4.22]);
   });
 });
 
@@ -374,7 +378,9 @@ describe('citations and provenance', () => {
   test('provenanceOf', () => {
     const pt = lib.metals.get('Pt')!;
     const p = provenanceOf(lib, 'metal.workFunction', pt.workFunction_eV, 'eV');
-    expect(p).toMatchObject({ field: 'metal.workFunction', value: 5.65, unit: 'eV', min: 5.12, max: 5.93, origin: 'library', source: 'michaelson1977', fromMemory: true });
+    expect(p).toMatchObject({ field: 'metal.workFunction', value: 5.65, unit: 'eV', min: 5.12, max: 5.93, origin: 'library', source: 'michaelson1977', fromMemory: false });
+    // a value that is still unverified says so in its provenance
+    expect(provenanceOf(lib, 'metal.workFunction', lib.metals.get('Fe')!.workFunction_eV, 'eV').fromMemory).toBe(true);
     expect(p.citation).toBe('Michaelson, J. Appl. Phys. 48, 4729 (1977), doi:10.1063/1.323539');
   });
 });
@@ -483,5 +489,195 @@ describe('user materials files', () => {
       supports: [userSupport({ donor: { type: 'single', level1_eV: { value: 5, source: 'xu2000' }, label: 'deep' } })],
     });
     expect(errorOf(level)).toMatch(/donor\.level1_eV\.value: 5 eV is not inside the band gap/);
+  });
+});
+
+// ---------------------------------------------------------------------------------------------
+// third survey: defect chemistry, interface and localised-electron data, new supports
+
+/** share of numeric values whose fromMemory flag is false (computed over the whole library) */
+function verifiedShare(records: { name: string }[], exclude: (pv: PropertyValue) => boolean = () => false): number {
+  const pvs = records.flatMap((r) => propertyValues(r).map(([, pv]) => pv)).filter((pv) => !exclude(pv));
+  return pvs.filter((pv) => !pv.fromMemory).length / pvs.length;
+}
+
+describe('third survey: coverage rules', () => {
+  test('every numeric value has a range (min and max) and a source', () => {
+    for (const rec of allRecords) {
+      for (const [path, pv] of propertyValues(rec)) {
+        const where = `${rec.name}.${path}`;
+        expect(pv.min, where).toBeDefined();
+        expect(pv.max, where).toBeDefined();
+        expect(pv.source, where).toBeTruthy();
+        // a zero-width range must say that no spread was read
+        if (pv.min === pv.max) expect(pv.note ?? '', where).toMatch(/no spread read|ASSUMED/i);
+      }
+    }
+  });
+
+  test('every electron affinity, reduction enthalpy and entropy has a non-zero range', () => {
+    for (const s of lib.supports.values()) {
+      const ea = s.electronAffinity_eV;
+      expect(ea.max! - ea.min!, `${s.name} affinity`).toBeGreaterThan(0);
+      if (s.reduction) {
+        expect(s.reduction.enthalpy_eV.max! - s.reduction.enthalpy_eV.min!, `${s.name} enthalpy`).toBeGreaterThan(0);
+        expect(s.reduction.entropy_kB.max! - s.reduction.entropy_kB.min!, `${s.name} entropy`).toBeGreaterThan(0);
+      }
+    }
+  });
+
+  test('verified share (fromMemory false), computed over every value of the library', () => {
+    const all = verifiedShare(allRecords);
+    // values that claim a literature source (ASSUMED modelling values excluded)
+    const literature = verifiedShare(allRecords, (pv) => pv.source.startsWith('bandbend-assumed'));
+    // 0.488 before the third survey (117 of 240); the survey's target of 0.75 of all values was not reached
+    // (0.66 of all values, 0.77 of the values that claim a literature source; materials/README.md)
+    expect(all).toBeGreaterThan(0.65);
+    expect(literature).toBeGreaterThanOrEqual(0.75);
+  });
+
+  test('the new supports load, with the values read', () => {
+    const s = (n: string) => lib.supports.get(n)!;
+    for (const n of ['WO3', 'MoO3', 'V2O5', 'Nb2O5', 'Co3O4', 'ThO2']) expect(lib.supports.has(n), n).toBe(true);
+    // Weinhardt et al., J. Phys. Chem. C 112, 3078 (2008) (abstract read): WO3 surface gap 3.28 +/- 0.14 eV, CBM 0.31 eV above H+/H2
+    expect(s('WO3').bandGap_eV.value).toBe(3.28);
+    expect(s('WO3').electronAffinity_eV.value).toBeCloseTo(4.44 - 0.31, 10);
+    // Meyer et al., Appl. Phys. Lett. 96 (2010), doi:10.1063/1.3374333 (abstract read): MoO3 EA 5.5, IE 8.6 eV (air-exposed)
+    expect(s('MoO3').electronAffinity_eV.value).toBe(5.5);
+    expect(s('MoO3').bandGap_eV.value).toBeCloseTo(8.6 - 5.5, 10);
+    // Meyer et al., J. Appl. Phys. 110, 033710 (2011) (abstract read): V2O5 EA 6.7 eV, IE 9.5 eV
+    expect(s('V2O5').electronAffinity_eV.value).toBe(6.7);
+    expect(s('V2O5').bandGap_eV.max).toBeCloseTo(9.5 - 6.7, 10);
+    // Nb2O5 films n = 2.2375 at 1.5 um (Franta et al., Opt. Mater. 157, 116133 (2024), via refractiveindex.info);
+    // experimental index 2.64 quoted in TecnoLógicas (2011) (record read) as the upper end: eps_inf = n^2
+    expect(s('Nb2O5').opticalPermittivity.value).toBeCloseTo(2.2375 ** 2, 2);
+    expect(s('Nb2O5').opticalPermittivity.max).toBeCloseTo(2.64 ** 2, 1);
+    // Chen, Wu & Selloni, Phys. Rev. B 83, 245204 (2011) (arXiv abstract read): Co3O4 gap about 1.6 eV
+    expect(s('Co3O4').bandGap_eV.value).toBe(1.6);
+    expect(s('Co3O4').conductionType).toBe('p');
+    // Mock et al., Appl. Phys. Lett. 114, 211901 (2019) (abstract read): ThO2 5.4 eV; n = 1.86 at 3 eV (Evans & Allred, read)
+    expect(s('ThO2').bandGap_eV.value).toBe(5.4);
+    expect(s('ThO2').opticalPermittivity.value).toBeCloseTo(1.86 ** 2, 2);
+  });
+
+  test('the electronegativity estimates of the new supports equal the estimator output', () => {
+    for (const n of ['Nb2O5', 'Co3O4']) {
+      const s = lib.supports.get(n)!;
+      expect(estimateElectronAffinity(s.formula, s.bandGap_eV.value).electronAffinity_eV, n).toBeCloseTo(s.electronAffinity_eV.value, 2);
+    }
+  });
+});
+
+describe('third survey: values against what was read', () => {
+  const s = (n: string) => lib.supports.get(n)!;
+
+  test('NiO: valence-band edge at the photoemission ionisation energy, not the electronegativity estimate', () => {
+    // Greiner et al., J. Phys. Chem. C 114, 19777 (2010) (article copy read): air-exposed NiO work function 5.2-5.6 eV;
+    // E_F - E_VBM = 0.47 eV for an ultrathin NiO(111) film (abstract read): IE = 5.67-6.07 eV
+    const nio = s('NiO');
+    const vbm = nio.electronAffinity_eV.value + nio.bandGap_eV.value;
+    expect(vbm).toBeGreaterThanOrEqual(5.2 + 0.47 - 1e-9);
+    expect(vbm).toBeLessThanOrEqual(5.6 + 0.47 + 1e-9);
+    expect(nio.electronAffinity_eV.value).toBeLessThan(4.0);
+  });
+
+  test('In2O3 charge-neutrality level lies in the conduction band', () => {
+    // King et al., Phys. Rev. Lett. 101, 116808 (2008): CNL about 0.4 eV above the CBM; King et al., Phys. Rev. B 79, 205211 (2009): gap 2.93 eV
+    expect(s('In2O3').chargeNeutralityAboveValence_eV!.value).toBeCloseTo(2.93 + 0.4, 10);
+    expect(s('In2O3').chargeNeutralityAboveValence_eV!.value).toBeGreaterThan(s('In2O3').bandGap_eV.value);
+  });
+
+  test('localised (polaron) levels and site densities', () => {
+    // Wendt et al., Science 320, 1755 (2008): Ti 3d gap state 0.85 eV below E_F on reduced rutile(110) (abstract read)
+    expect(s('TiO2-rutile').localisedLevel_eV!.value).toBe(0.85);
+    // Payne et al., Top. Catal. (2017): anatase(101) Ti 3d gap state 0.73 eV below E_F (open-access copy read)
+    expect(s('TiO2-anatase').localisedLevel_eV!.value).toBe(0.73);
+    // Mullins, Overbury & Huntley, Surf. Sci. 409, 307 (1998): Ce3+ 4f peak at 2.0 eV; Ce2O3 ARPES record: about 1.3 eV
+    const ce = s('CeO2').localisedLevel_eV!;
+    expect([ce.min, ce.max]).toEqual([1.3, 2.0]);
+    // site densities from lattice parameters: CeO2 4 Ce in a cubic cell of 5.42 Angstrom; rutile 2 Ti in a 4.593 x 4.593 x 2.959 cell
+    expect(s('CeO2').localisedSiteDensity_cm3!.value / (4 / 5.42e-8 ** 3)).toBeCloseTo(1, 2);
+    expect(s('TiO2-rutile').localisedSiteDensity_cm3!.value / (2 / (4.593e-8 ** 2 * 2.959e-8))).toBeCloseTo(1, 2);
+    // every localised level lies inside the gap
+    for (const r of lib.supports.values()) {
+      if (r.localisedLevel_eV) expect(r.localisedLevel_eV.max!, r.name).toBeLessThan(r.bandGap_eV.value);
+    }
+  });
+
+  test('MgO F centres: optical energies, densities of reduced crystals', () => {
+    // Kappers, Kroes & Hensley, Phys. Rev. B 1, 4151 (1970) (abstract read): F / F+ absorption 5.03 / 4.96 eV
+    const d = s('MgO').donor!;
+    expect([d.type, d.level1_eV.value, d.level2_eV!.value]).toEqual(['double', 5.03, 4.96]);
+    // González et al., Phys. Rev. B 59, 4786 (1999): 1e17-1e18 cm^-3 F centres in thermochemically reduced crystals
+    expect([s('MgO').typicalDensity_cm3!.min, s('MgO').typicalDensity_cm3!.max]).toEqual([1e17, 1e18]);
+  });
+
+  test('rutile reduction law, fitted to one point of Millot & Picard (1988), predicts their other points within a factor of 2', () => {
+    // Millot & Picard, Solid State Ionics 28-30, 1344 (1988), x in TiO2-x at 1373 K (table read): the fit used x = 1.1e-3 at 3.39e-12 atm
+    const red = s('TiO2-rutile').reduction!;
+    const kT = 8.617333262e-5 * 1373;
+    const K = Math.exp(red.entropy_kB.value - red.enthalpy_eV.value / kT);
+    // K = [V_O] n^2 pO2^(1/2) with [V_O] = x/2, n = x: x = (2 K / pO2^(1/2))^(1/3)
+    const x = (po2: number) => ((2 * K) / Math.sqrt(po2)) ** (1 / 3);
+    const measured: [number, number][] = [[3.31e-10, 5e-4], [3.38e-14, 2.8e-3], [1.7e-16, 8.4e-3]];
+    for (const [po2, xm] of measured) {
+      expect(x(po2) / xm, `pO2 ${po2}`).toBeGreaterThan(0.5);
+      expect(x(po2) / xm, `pO2 ${po2}`).toBeLessThan(2);
+    }
+    // Bak, Nowotny & Nowotny (2006): conductivity activation 218 kJ/mol = H/3
+    expect(red.enthalpy_eV.value).toBeCloseTo((3 * 218) / 96.485, 2);
+  });
+
+  test('ceria oxygen chemical diffusion (Stan et al., J. Appl. Phys. 95, 3358 (2004)): 22.32 cm^2/s, 194.5 kJ/mol', () => {
+    const d = s('CeO2').reduction!.vacancyDiffusion!;
+    expect(d.prefactor_cm2_s.value).toBe(22.32);
+    expect(d.activation_eV.value).toBeCloseTo(194.5 / 96.485, 3);
+  });
+
+  test('Mott critical densities follow n_c^(1/3) a* = 0.25 with the permittivity and mass of the entry', () => {
+    // Kittel, Introduction to Solid State Physics, 8th ed., pp. 407-409, as quoted in the encyclopedia article (read)
+    for (const n of ['ZnO', 'In2O3']) {
+      const r = s(n);
+      const a_cm = 0.0529e-7 * (r.staticPermittivity.value / r.electronMass_me.value);
+      expect(r.mottCriticalDensity_cm3!.value / (0.25 / a_cm) ** 3, n).toBeCloseTo(1, 1);
+    }
+  });
+
+  test('metals: DOS at E_F from specific heat, size coefficient of the work function', () => {
+    // Martin, Phys. Rev. B 8, 5357 (1973) (abstract read): gamma(Cu) = 0.691 mJ/(mol K^2); N(E_F) = 3 gamma / (pi^2 k_B^2)
+    const kB = 1.380649e-23, NA = 6.02214076e23, e = 1.602176634e-19;
+    const perEvAtom = (gamma_mJ: number) => (3 * gamma_mJ * 1e-3) / (Math.PI ** 2 * kB ** 2 * NA) * e;
+    expect(lib.metals.get('Cu')!.densityOfStatesAtFermi_per_eV_atom!.value).toBeCloseTo(perEvAtom(0.691), 2);
+    // Seidl & Perdew, Phys. Rev. B 50, 5744 (1994) (abstract read): 3/8 (image potential) and 1/2 (sphere)
+    for (const m of lib.metals.values()) {
+      expect([m.sizeWorkFunctionCoefficient!.value, m.sizeWorkFunctionCoefficient!.max], m.name).toEqual([3 / 8, 1 / 2]);
+    }
+  });
+});
+
+describe('third survey: schema of the new fields', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'bandbend-materials3-'));
+  const { kind: _kind, ...znoEntry } = lib.supports.get('ZnO')!;
+  const load = (over: Record<string, unknown>): string => {
+    const path = join(dir, `f${Math.random().toString(36).slice(2)}.json`);
+    writeFileSync(path, JSON.stringify({ supports: [{ ...znoEntry, name: 'ZnO-y', ...over }] }));
+    try {
+      loadLibrary([path]);
+      return 'ok';
+    } catch (err) {
+      return (err as Error).message;
+    }
+  };
+  test('a charge-neutrality level given below vacuum instead of above the VBM is refused', () => {
+    expect(load({ chargeNeutralityAboveValence_eV: { value: 3.0, source: 'xu2000' } })).toBe('ok');
+    expect(load({ chargeNeutralityAboveValence_eV: { value: 7.5, source: 'xu2000' } })).toMatch(/more than twice the band gap/);
+  });
+  test('a localised level outside the gap, a negative diffusion prefactor and unknown fields are refused', () => {
+    expect(load({ localisedLevel_eV: { value: 4, source: 'xu2000' } })).toMatch(/localisedLevel_eV\.value: 4 eV is not inside the band gap/);
+    const red = { enthalpy_eV: { value: 4, source: 'xu2000' }, entropy_kB: { value: 9, source: 'xu2000' }, oxygenSites_cm3: { value: 4e22, source: 'xu2000' } };
+    expect(load({ reduction: { ...red, law: 'test law', vacancyDiffusion: { prefactor_cm2_s: { value: 1, source: 'xu2000' }, activation_eV: { value: 2, source: 'xu2000' } } } })).toBe('ok');
+    expect(load({ reduction: { ...red, vacancyDiffusion: { prefactor_cm2_s: { value: -1, source: 'xu2000' }, activation_eV: { value: 2, source: 'xu2000' } } } })).toMatch(/prefactor_cm2_s\.value: -1 is out of range/);
+    expect(load({ interfaceLayerThickness_nm: { value: 0, source: 'xu2000' } })).toMatch(/interfaceLayerThickness_nm\.value: 0 is out of range/);
+    expect(load({ localisedLevel: 1 })).toMatch(/unknown field "localisedLevel"/);
   });
 });

@@ -31,6 +31,26 @@ describe('every input of a library contact carries resolvable provenance', () =>
   });
 });
 
+describe('library defaults of the third materials survey reach the contact with their provenance', () => {
+  it('Pt on CeO2 with defaults is not an undoped support: the typical density derived from the ceria reduction law is used and cited', () => {
+    const r = solveContact({ metal: 'Pt', support: 'CeO2', materials: library });
+    const donors = r.inputs.find((i) => i.field === 'donor density');
+    expect(donors?.origin).toBe('library');
+    expect(library.references.has(donors!.source!)).toBe(true);
+    expect(r.donorDensity_cm3).toBeGreaterThan(1e14);
+    expect(r.cautions.some((c) => /undoped/i.test(c))).toBe(false);
+  });
+
+  it('every library input of Pt on the new supports cites a reference that exists', () => {
+    for (const support of ['WO3', 'MoO3', 'V2O5', 'Nb2O5', 'Co3O4', 'ThO2', 'NiO']) {
+      const r = solveContact({ metal: 'Pt', support, materials: library });
+      for (const input of r.inputs.filter((i) => i.origin === 'library')) {
+        expect(library.references.has(input.source!), `${support} ${input.field} -> ${input.source}`).toBe(true);
+      }
+    }
+  });
+});
+
 describe('pretreatment defect chemistry through the contact', () => {
   it('donor density falls with slope -1/6 in log pO2 (Brouwer regime n = 2[V_O]; Kofstad, Nonstoichiometry, 1972; from memory, verify)', () => {
     const density = (po2_bar: number): number =>

@@ -7,6 +7,7 @@ export type {
   DefectLevel,
   AcceptorLevel,
   ReductionThermo,
+  VacancyDiffusion,
   CslItem,
   MaterialsLibrary,
   InputProvenance,

@@ -75,6 +75,14 @@ export const BOUNDS = {
   enthalpy_eV: { lo: 0, hi: 20, unit: 'eV' },
   entropy_kB: { lo: -100, hi: 100, unit: 'k_B' },
   oxygenSites_cm3: { lo: 1e20, hi: 1e24, unit: 'cm^-3' },
+  chargeNeutralityAboveValence_eV: { lo: 0, hi: 12, unit: 'eV' },
+  interfaceLayerThickness_nm: { lo: 0, hi: 100, unit: 'nm', exclusiveLo: true },
+  interfaceLayerPermittivity: { lo: 1, hi: 1e5, unit: '' },
+  localisedLevel_eV: { lo: 0, hi: 12, unit: 'eV' },
+  diffusionPrefactor_cm2_s: { lo: 0, hi: 1e6, unit: 'cm^2/s', exclusiveLo: true },
+  activation_eV: { lo: 0, hi: 20, unit: 'eV' },
+  densityOfStates_per_eV_atom: { lo: 0, hi: 50, unit: 'states/(eV atom)', exclusiveLo: true },
+  sizeWorkFunctionCoefficient: { lo: 0, hi: 2, unit: '' },
 } satisfies Record<string, Bounds>;
 
 const name = z
@@ -94,6 +102,8 @@ export const MetalEntrySchema = z
     density_g_cm3: propertyValue(BOUNDS.density_g_cm3),
     molarMass_g_mol: propertyValue(BOUNDS.molarMass_g_mol),
     metallicRadius_pm: propertyValue(BOUNDS.metallicRadius_pm),
+    densityOfStatesAtFermi_per_eV_atom: propertyValue(BOUNDS.densityOfStates_per_eV_atom).optional(),
+    sizeWorkFunctionCoefficient: propertyValue(BOUNDS.sizeWorkFunctionCoefficient).optional(),
   })
   .strict();
 
@@ -118,11 +128,21 @@ export const AcceptorLevelSchema = z
   })
   .strict();
 
+export const VacancyDiffusionSchema = z
+  .object({
+    prefactor_cm2_s: propertyValue(BOUNDS.diffusionPrefactor_cm2_s),
+    activation_eV: propertyValue(BOUNDS.activation_eV),
+    label: text.optional(),
+  })
+  .strict();
+
 export const ReductionThermoSchema = z
   .object({
     enthalpy_eV: propertyValue(BOUNDS.enthalpy_eV),
     entropy_kB: propertyValue(BOUNDS.entropy_kB),
     oxygenSites_cm3: propertyValue(BOUNDS.oxygenSites_cm3),
+    law: text.optional(),
+    vacancyDiffusion: VacancyDiffusionSchema.optional(),
   })
   .strict();
 
@@ -146,6 +166,12 @@ export const SupportEntrySchema = z
     typicalDensity_cm3: propertyValue(BOUNDS.density_cm3).optional(),
     neutralLevel_eV: propertyValue(BOUNDS.neutralLevel_eV).optional(),
     pinningFactor: propertyValue(BOUNDS.pinningFactor).optional(),
+    chargeNeutralityAboveValence_eV: propertyValue(BOUNDS.chargeNeutralityAboveValence_eV).optional(),
+    interfaceLayerThickness_nm: propertyValue(BOUNDS.interfaceLayerThickness_nm).optional(),
+    interfaceLayerPermittivity: propertyValue(BOUNDS.interfaceLayerPermittivity).optional(),
+    localisedSiteDensity_cm3: propertyValue(BOUNDS.density_cm3).optional(),
+    localisedLevel_eV: propertyValue(BOUNDS.localisedLevel_eV).optional(),
+    mottCriticalDensity_cm3: propertyValue(BOUNDS.density_cm3).optional(),
     reduction: ReductionThermoSchema.optional(),
   })
   .strict()
@@ -170,11 +196,22 @@ export const SupportEntrySchema = z
       [['donor', 'level1_eV', 'value'], s.donor?.level1_eV.value],
       [['donor', 'level2_eV', 'value'], s.donor?.level2_eV?.value],
       [['acceptor', 'level_eV', 'value'], s.acceptor?.level_eV.value],
+      [['localisedLevel_eV', 'value'], s.localisedLevel_eV?.value],
     ];
     for (const [path, v] of levels) {
       if (v !== undefined && v >= gap) {
         ctx.addIssue({ code: z.ZodIssueCode.custom, path, message: `${v} eV is not inside the band gap (${gap} eV)` });
       }
+    }
+    // a charge-neutrality level may lie in the conduction band (In2O3, ZnO: surface electron accumulation),
+    // but not more than the gap above it: that would be a unit slip (eV below vacuum given instead).
+    const cnl = s.chargeNeutralityAboveValence_eV?.value;
+    if (cnl !== undefined && cnl > 2 * gap) {
+      ctx.addIssue({
+        code: z.ZodIssueCode.custom,
+        path: ['chargeNeutralityAboveValence_eV', 'value'],
+        message: `${cnl} eV is more than twice the band gap (${gap} eV) above the valence band (give the level above the valence-band maximum, not below vacuum)`,
+      });
     }
   });
 

@@ -24,6 +24,10 @@ export interface MetalRecord {
   density_g_cm3: PropertyValue;
   molarMass_g_mol: PropertyValue;
   metallicRadius_pm: PropertyValue;
+  /** electronic density of states at the Fermi level, states per eV per atom (both spins) */
+  densityOfStatesAtFermi_per_eV_atom?: PropertyValue;
+  /** alpha in W(R) = W + alpha e^2/(4 pi eps0 R) for a sphere of radius R (3/8: Wood 1981; 1/2: classical sphere) */
+  sizeWorkFunctionCoefficient?: PropertyValue;
 }
 
 export type ConductionType = 'n' | 'p' | 'insulator';
@@ -45,6 +49,14 @@ export interface AcceptorLevel {
   label: string;
 }
 
+/** Chemical (or tracer) diffusion coefficient D = prefactor exp(-activation / k_B T), for re-equilibration times. */
+export interface VacancyDiffusion {
+  prefactor_cm2_s: PropertyValue;
+  activation_eV: PropertyValue;
+  /** what was measured (chemical, tracer or vacancy diffusion; temperature range) */
+  label?: string;
+}
+
 /** Reduction thermodynamics for O_O = V_O(2+) + 2e- + 1/2 O2(g) (per vacancy formed). */
 export interface ReductionThermo {
   enthalpy_eV: PropertyValue;
@@ -52,6 +64,9 @@ export interface ReductionThermo {
   entropy_kB: PropertyValue;
   /** density of oxygen lattice sites, per cm^3 */
   oxygenSites_cm3: PropertyValue;
+  /** the defect law the enthalpy and entropy belong to, and the data it represents (text) */
+  law?: string;
+  vacancyDiffusion?: VacancyDiffusion;
 }
 
 export interface SupportRecord {
@@ -74,6 +89,18 @@ export interface SupportRecord {
   /** charge-neutrality level as an energy below the vacuum level (same scale as a work function), eV */
   neutralLevel_eV?: PropertyValue;
   pinningFactor?: PropertyValue;
+  /** charge-neutrality level (branch point of the metal-induced gap states) above the valence-band maximum, eV */
+  chargeNeutralityAboveValence_eV?: PropertyValue;
+  /** thickness of an interfacial layer between metal and oxide, nm */
+  interfaceLayerThickness_nm?: PropertyValue;
+  /** relative permittivity of that interfacial layer */
+  interfaceLayerPermittivity?: PropertyValue;
+  /** density of sites that can hold a localised (small-polaron, reduced-cation) electron, per cm^3 */
+  localisedSiteDensity_cm3?: PropertyValue;
+  /** depth of the localised (small-polaron) level below the conduction-band edge E_C, eV (positive) */
+  localisedLevel_eV?: PropertyValue;
+  /** Mott critical donor density above which donors no longer bind electrons, per cm^3 */
+  mottCriticalDensity_cm3?: PropertyValue;
   reduction?: ReductionThermo;
 }
 
