@@ -1,6 +1,6 @@
 // The validation gallery: published measurements (validation/*.json) beside the model's predictions, and the
 // statistics that summarise the comparison. Nothing here is fitted to the gallery.
-import { readFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { join } from 'node:path';
 import { z } from 'zod';
@@ -452,4 +452,64 @@ export function summarise(rows: readonly ValidationRow[], model: BarrierModel, g
       failed: failed('bandBending'),
     },
   };
+}
+
+// ------------------------------------------------------------------------------------------ baseline
+
+/** Models in the committed baseline (validation/baseline.json). */
+export const BASELINE_MODELS: readonly BarrierModel[] = ['ideal', 'pinned'];
+
+/** Tolerances of the baseline test: an error may grow by this much, a fraction may drop by this much. */
+export const BASELINE_TOLERANCE = { error_eV: 0.01, fraction: 0.001 } as const;
+
+export interface Baseline {
+  $comment: string;
+  statistics: Record<string, ValidationStatistics>;
+}
+
+/** Statistics of every baseline model with the current code and library (what validation/baseline.json holds). */
+export function computeBaseline(solve?: SolveFunction): Baseline {
+  const statistics: Record<string, ValidationStatistics> = {};
+  for (const model of BASELINE_MODELS) statistics[model] = runValidation({ model, ...(solve ? { solve } : {}) }).statistics;
+  return {
+    $comment:
+      'Validation statistics with library defaults, recomputed by test/validation.test.ts, which fails if they get worse. ' +
+      'Regenerate after a deliberate change (node -e "import(\'./dist/validation/gallery.js\').then(m => m.writeBaseline())" after npm run build) and say why in the commit.',
+    statistics,
+  };
+}
+
+/** Write validation/baseline.json from the current code (deliberate use only). */
+export function writeBaseline(dir: string = GALLERY_DIR): Baseline {
+  const b = computeBaseline();
+  writeFileSync(join(dir, 'baseline.json'), `${JSON.stringify(b, null, 1)}\n`, 'utf8');
+  return b;
+}
+
+/**
+ * Ways the current statistics are worse than the baseline (empty: not worse). A change in how many rows, pairs or
+ * failures are compared is reported too: the numbers are then not comparable and the baseline must be regenerated.
+ */
+export function regressions(current: ValidationStatistics, base: ValidationStatistics, tol = BASELINE_TOLERANCE): string[] {
+  const out: string[] = [];
+  const m = current.model;
+  const sameCount = (label: string, a: number, b: number) => {
+    if (a !== b) out.push(`${m}: ${label} changed from ${b} to ${a}: regenerate validation/baseline.json and say why`);
+  };
+  sameCount('barrier rows', current.barrier.rows, base.barrier.rows);
+  sameCount('barrier pairs', current.barrier.pairs, base.barrier.pairs);
+  sameCount('charge rows', current.charge.rows, base.charge.rows);
+  sameCount('band-bending rows', current.bandBending.rows, base.bandBending.rows);
+  const worseError = (label: string, a: number | null, b: number | null) => {
+    if (b !== null && (a === null || a > b + tol.error_eV)) out.push(`${m}: ${label} ${a} eV is worse than the baseline ${b} eV`);
+  };
+  const worseFraction = (label: string, a: number | null, b: number | null) => {
+    if (b !== null && (a === null || a < b - tol.fraction)) out.push(`${m}: ${label} ${a} is worse than the baseline ${b}`);
+  };
+  worseError('barrier mean absolute error', current.barrier.meanAbsoluteError_eV, base.barrier.meanAbsoluteError_eV);
+  worseError('verified-row barrier error', current.barrier.verifiedMeanAbsoluteError_eV, base.barrier.verifiedMeanAbsoluteError_eV);
+  worseFraction('charge sign agreement', current.charge.signAgreement, base.charge.signAgreement);
+  worseFraction('charge within a factor of 3', current.charge.withinFactor3, base.charge.withinFactor3);
+  worseError('band-bending mean absolute error', current.bandBending.meanAbsoluteError_eV, base.bandBending.meanAbsoluteError_eV);
+  return out;
 }
