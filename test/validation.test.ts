@@ -42,13 +42,16 @@ describe('validation statistics on toy inputs (worked by hand)', () => {
     expect(meanAbsoluteError(pairs)).toBeCloseTo(0.3, 12);
   });
 
-  it('sign agreement ignores "mixed" rows and zero predictions count as disagreement', () => {
-    // definite rows: (+3, to-metal) yes, (-2, to-metal) no, (-1, to-support) yes, (0, to-support) no -> 2/4
+  it('sign agreement ignores "mixed" rows; |N| < 0.5 counts as "none"', () => {
+    // definite rows: (+3, to-metal) yes, (-2, to-metal) no, (-1, to-support) yes, (0, to-support) no,
+    // (0.3, none) yes, (-0.6, none) no -> 3/6
     const f = signAgreement([
       { predicted: 3, sign: 'to-metal' },
       { predicted: -2, sign: 'to-metal' },
       { predicted: -1, sign: 'to-support' },
       { predicted: 0, sign: 'to-support' },
+      { predicted: 0.3, sign: 'none' },
+      { predicted: -0.6, sign: 'none' },
       { predicted: 5, sign: 'mixed' },
     ]);
     expect(f).toBeCloseTo(0.5, 12);

@@ -55,7 +55,7 @@ export const ChargeRowSchema = z
     quantity: z.literal('electronsPerParticle'),
     /** electrons gained by the metal particle (negative: to the support); null when only the sign or a range is known */
     value: num.nullable(),
-    sign: z.enum(['to-metal', 'to-support', 'mixed']),
+    sign: z.enum(['to-metal', 'to-support', 'mixed', 'none']),
     /** measured |electrons per particle| range */
     magnitudeRange: z.tuple([num.nonnegative(), num.nonnegative()]).nullable(),
     electronsPerAtom: num.nullable(),
@@ -234,11 +234,15 @@ export function pairMeans(items: readonly PairedBarrier[]): (Comparison & { pair
   }));
 }
 
-export type ChargeSign = 'to-metal' | 'to-support' | 'mixed';
+export type ChargeSign = 'to-metal' | 'to-support' | 'mixed' | 'none';
 
-/** Sign of a predicted charge (electrons gained by the metal): 'to-metal' if > 0, 'to-support' if < 0, null if 0. */
-export function signOf(electronsGained: number): ChargeSign | null {
-  return electronsGained > 0 ? 'to-metal' : electronsGained < 0 ? 'to-support' : null;
+/** Below this many electrons per particle a prediction counts as "no transfer" (charge comes in whole electrons). */
+export const NO_TRANSFER_BELOW_ELECTRONS = 0.5;
+
+/** Direction of a predicted charge (electrons gained by the metal): 'none' when |N| < 0.5, else by sign. */
+export function signOf(electronsGained: number): Exclude<ChargeSign, 'mixed'> {
+  if (Math.abs(electronsGained) < NO_TRANSFER_BELOW_ELECTRONS) return 'none';
+  return electronsGained > 0 ? 'to-metal' : 'to-support';
 }
 
 /** Fraction of rows whose predicted sign equals the measured one ('mixed' rows are not counted); null if none. */

@@ -15,6 +15,7 @@ function pad(s: string, n: number): string {
 }
 
 function measuredText(r: ValidationRow): string {
+  if (r.kind === 'charge' && r.measuredSign === 'none') return 'none';
   if (r.kind === 'charge' && r.measured === null) {
     const range = r.measuredRange ? ` |N| ${formatNumber(r.measuredRange[0])}-${formatNumber(r.measuredRange[1])}` : '';
     return `${r.measuredSign ?? ''}${range}`;
