@@ -112,7 +112,7 @@ export interface ValidationReportPaths {
   figures: string[];
 }
 
-/** Write validation.txt, validation.json and the predicted-vs-measured figure (.svg + .vl.json) into dir. */
+/** Write validation.txt, validation.json and the predicted-vs-measured figures (barrier; band bending when compared) into dir. */
 export async function writeValidationReport(dir: string, result: ValidationResult): Promise<ValidationReportPaths> {
   await mkdir(dir, { recursive: true });
   const table = join(dir, 'validation.txt');
@@ -122,5 +122,9 @@ export async function writeValidationReport(dir: string, result: ValidationResul
   const figures: string[] = [];
   const fig = await writeFigure(dir, 'barrier-predicted-vs-measured', predictedVsMeasuredSpec(result, 'barrier'));
   figures.push(fig.svgPath);
+  if (result.rows.some((r) => r.kind === 'bandBending' && r.status === 'ok')) {
+    const bb = await writeFigure(dir, 'band-bending-predicted-vs-measured', predictedVsMeasuredSpec(result, 'bandBending'));
+    figures.push(bb.svgPath);
+  }
   return { table, json, figures };
 }
