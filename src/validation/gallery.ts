@@ -275,6 +275,9 @@ export interface ValidationRow {
   id: string;
   metal: string;
   support: string;
+  /** library keys (null when not in the library) */
+  metalKey?: string | null;
+  supportKey?: string | null;
   method: string;
   citation: string;
   verified: boolean;
@@ -367,7 +370,7 @@ export function runValidation(options: ValidationOptions = {}): ValidationResult
     !r.inStatistics ? 'kept for the record, outside the comparison (see the row note)' : r.metalKey === null ? 'metal not in the library' : r.supportKey === null ? 'support not in the library' : undefined;
 
   for (const r of gallery.barriers.filter(keep)) {
-    const row: ValidationRow = { kind: 'barrier', id: r.id, metal: r.metal, support: r.support, method: r.method, citation: r.citation, verified: r.verified, measured: r.value, predicted: null, status: 'ok' };
+    const row: ValidationRow = { kind: 'barrier', id: r.id, metal: r.metal, support: r.support, metalKey: r.metalKey, supportKey: r.supportKey, method: r.method, citation: r.citation, verified: r.verified, measured: r.value, predicted: null, status: 'ok' };
     const why = excludedReason(r);
     if (why) Object.assign(row, { status: 'excluded', reason: why });
     else {
@@ -379,7 +382,7 @@ export function runValidation(options: ValidationOptions = {}): ValidationResult
   }
   for (const r of gallery.charges.filter(keep)) {
     const row: ValidationRow = {
-      kind: 'charge', id: r.id, metal: r.metal, support: r.support, method: r.method, citation: r.citation, verified: r.verified,
+      kind: 'charge', id: r.id, metal: r.metal, support: r.support, metalKey: r.metalKey, supportKey: r.supportKey, method: r.method, citation: r.citation, verified: r.verified,
       measured: r.value, measuredSign: r.sign, measuredRange: r.magnitudeRange, predicted: null, status: 'ok',
     };
     const why = excludedReason(r);
@@ -393,7 +396,7 @@ export function runValidation(options: ValidationOptions = {}): ValidationResult
   }
   for (const r of gallery.bandBending.filter(keep)) {
     const row: ValidationRow = {
-      kind: 'bandBending', id: r.id, metal: r.metal, support: r.support, method: r.method, citation: r.citation, verified: r.verified,
+      kind: 'bandBending', id: r.id, metal: r.metal, support: r.support, metalKey: r.metalKey, supportKey: r.supportKey, method: r.method, citation: r.citation, verified: r.verified,
       measured: measuredFinalBandBending_eV(r), predicted: null, status: 'ok',
     };
     const why = excludedReason(r);
@@ -408,23 +411,21 @@ export function runValidation(options: ValidationOptions = {}): ValidationResult
     }
     rows.push(row);
   }
-  return { rows, statistics: summarise(rows, model.barrierModel, gallery) };
+  return { rows, statistics: summarise(rows, model.barrierModel) };
 }
 
 /** Statistics of a set of compared rows (pure). */
-export function summarise(rows: readonly ValidationRow[], model: BarrierModel, gallery?: Gallery): ValidationStatistics {
+export function summarise(rows: readonly ValidationRow[], model: BarrierModel): ValidationStatistics {
   const ok = (kind: ValidationRow['kind']) => rows.filter((r) => r.kind === kind && r.status === 'ok' && r.predicted !== null);
   const failed = (kind: ValidationRow['kind']) => rows.filter((r) => r.kind === kind && r.status === 'failed').length;
-  const supportKeyOf = new Map<string, string>();
-  for (const b of gallery?.barriers ?? []) if (b.supportKey) supportKeyOf.set(b.id, b.supportKey);
-  const metalKeyOf = new Map<string, string>();
-  for (const b of gallery?.barriers ?? []) if (b.metalKey) metalKeyOf.set(b.id, b.metalKey);
+  const supportOf = (r: ValidationRow) => r.supportKey ?? r.support;
+  const metalOf = (r: ValidationRow) => r.metalKey ?? r.metal;
 
   const barrierRows = ok('barrier');
   const paired = (rs: ValidationRow[]) =>
-    pairMeans(rs.map((r) => ({ pair: `${metalKeyOf.get(r.id) ?? r.metal}|${supportKeyOf.get(r.id) ?? r.support}`, predicted: r.predicted!, measured: r.measured! })));
+    pairMeans(rs.map((r) => ({ pair: `${metalOf(r)}|${supportOf(r)}`, predicted: r.predicted!, measured: r.measured! })));
   const pairs = paired(barrierRows);
-  const oxides = new Set(barrierRows.map((r) => supportKeyOf.get(r.id) ?? r.support));
+  const oxides = new Set(barrierRows.map(supportOf));
 
   const chargeRows = ok('charge');
   const signItems = chargeRows.filter((r) => r.measuredSign !== undefined).map((r) => ({ predicted: r.predicted!, sign: r.measuredSign! }));

@@ -66,7 +66,7 @@ export function statisticsText(s: ValidationStatistics): string {
 export function predictedVsMeasuredSpec(result: ValidationResult, kind: 'barrier' | 'bandBending' = 'barrier'): TopLevelSpec {
   const values = result.rows
     .filter((r) => r.kind === kind && r.status === 'ok' && r.predicted !== null && r.measured !== null)
-    .map((r) => ({ id: r.id, pair: `${r.metal} | ${r.support}`, measured: r.measured!, predicted: r.predicted!, verified: r.verified ? 'seen' : 'from memory', method: r.method }));
+    .map((r) => ({ id: r.id, oxide: r.supportKey ?? r.support, pair: `${r.metal} | ${r.support}`, measured: r.measured!, predicted: r.predicted!, verified: r.verified ? 'seen' : 'from memory', method: r.method }));
   const all = values.flatMap((v) => [v.measured, v.predicted]);
   const lo = all.length ? Math.min(0, ...all) : 0;
   const hi = all.length ? Math.max(...all) * 1.05 : 1;
@@ -92,10 +92,11 @@ export function predictedVsMeasuredSpec(result: ValidationResult, kind: 'barrier
         encoding: {
           x: { field: 'measured', type: 'quantitative', scale: { domain: [lo, hi] } },
           y: { field: 'predicted', type: 'quantitative', scale: { domain: [lo, hi] } },
-          color: { field: 'pair', type: 'nominal', title: 'metal | support', scale: { scheme: 'tableau10' } },
+          color: { field: 'oxide', type: 'nominal', title: 'support', scale: { scheme: 'tableau10' } },
           shape: { field: 'verified', type: 'nominal', title: 'value', scale: { domain: ['seen', 'from memory'], range: ['circle', 'triangle'] } },
           tooltip: [
             { field: 'id', type: 'nominal' },
+            { field: 'pair', type: 'nominal' },
             { field: 'method', type: 'nominal' },
             { field: 'measured', type: 'quantitative', format: '.3f' },
             { field: 'predicted', type: 'quantitative', format: '.3f' },
