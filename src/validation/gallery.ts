@@ -1,0 +1,520 @@
+// The validation gallery: published measurements (validation/*.json) beside the model's predictions, and the
+// statistics that summarise the comparison. Nothing here is fitted to the gallery.
+import { readFileSync, writeFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { join } from 'node:path';
+import { z } from 'zod';
+import { solveContact } from '../contact.js';
+import { CslItemSchema } from '../materials/schema.js';
+import type { ContactResult, BarrierModel } from '../types.js';
+import {
+  bandBendingProfile,
+  kineticEnergy_eV,
+  monolayerThickness_m,
+  observedBandBending_eV,
+  seahDenchImfpCompound_m,
+} from '../derived/photoemission.js';
+
+// ------------------------------------------------------------------------------------------ schemas
+
+const num = z.number().finite();
+const common = {
+  id: z.string().regex(/^[A-Za-z0-9_.-]+$/),
+  metal: z.string().min(1),
+  /** key of the metals library, null when the contact metal is not in it */
+  metalKey: z.string().nullable(),
+  support: z.string().min(1),
+  /** key of materials/supports.json, null when the support is not in it */
+  supportKey: z.string().nullable(),
+  method: z.string().min(1),
+  citation: z.string().min(1),
+  whereSeen: z.string().min(1),
+  /** true: the number was read at whereSeen; false: from memory, not seen */
+  verified: z.boolean(),
+  /** false: kept for the record but outside the model's physics or not comparable */
+  inStatistics: z.boolean(),
+  note: z.string().nullable().optional(),
+};
+
+export const BarrierRowSchema = z
+  .object({
+    ...common,
+    quantity: z.literal('electronBarrier_eV'),
+    value: num,
+    uncertainty: num.nonnegative().nullable(),
+    range: z.tuple([num, num]).nullable(),
+    conditions: z
+      .object({ temperature_K: num.positive(), donors_cm3: num.positive().nullable(), surface: z.string().nullable().optional() })
+      .strict(),
+  })
+  .strict();
+
+export const ChargeRowSchema = z
+  .object({
+    ...common,
+    quantity: z.literal('electronsPerParticle'),
+    /** electrons gained by the metal particle (negative: to the support); null when only the sign or a range is known */
+    value: num.nullable(),
+    sign: z.enum(['to-metal', 'to-support', 'mixed', 'none']),
+    /** measured |electrons per particle| range */
+    magnitudeRange: z.tuple([num.nonnegative(), num.nonnegative()]).nullable(),
+    electronsPerAtom: num.nullable(),
+    conditions: z
+      .object({
+        temperature_K: num.positive(),
+        particleDiameter_nm: num.positive().nullable(),
+        particleDiameterNote: z.string().nullable().optional(),
+        atoms: num.positive().nullable(),
+        supportState: z.string().nullable().optional(),
+      })
+      .strict(),
+  })
+  .strict();
+
+export const BandBendingRowSchema = z
+  .object({
+    ...common,
+    quantity: z.literal('bandBendingChange_eV'),
+    /** change of band bending on metal deposition, eV, positive = bands further up at the surface */
+    value: num,
+    uncertainty: num.nonnegative().nullable(),
+    coreLevel: z.string(),
+    coreLevelShift_eV: num,
+    coreLevelBindingEnergy_eV: num.nonnegative(),
+    photonEnergy_eV: num.positive(),
+    photonEnergyNote: z.string().nullable().optional(),
+    emissionAngle_deg: num.min(0).max(89),
+    /** band bending of the clean surface before deposition, eV (null: not reported, taken as 0) */
+    initialBandBending_eV: num.nullable(),
+    /** for the information depth (Seah-Dench monolayer thickness) */
+    supportMolarMass_g_mol: num.positive(),
+    supportDensity_g_cm3: num.positive(),
+    atomsPerFormulaUnit: z.number().int().positive(),
+    supportDataNote: z.string(),
+    conditions: z
+      .object({
+        temperature_K: num.positive(),
+        donors_cm3: num.positive().nullable(),
+        surface: z.string().nullable().optional(),
+        coverage: z.string().nullable().optional(),
+      })
+      .strict(),
+  })
+  .strict();
+
+const fileSchema = <T extends z.ZodTypeAny>(kind: string, row: T) =>
+  z.object({ $comment: z.string().optional(), kind: z.literal(kind), rows: z.array(row) }).strict();
+
+export type BarrierRow = z.infer<typeof BarrierRowSchema>;
+export type ChargeRow = z.infer<typeof ChargeRowSchema>;
+export type BandBendingRow = z.infer<typeof BandBendingRowSchema>;
+
+export interface Gallery {
+  barriers: BarrierRow[];
+  charges: ChargeRow[];
+  bandBending: BandBendingRow[];
+  references: z.infer<typeof CslItemSchema>[];
+}
+
+/** Folder of the gallery shipped with the package (works from src/ under vitest and from dist/). */
+export const GALLERY_DIR = fileURLToPath(new URL('../../validation/', import.meta.url));
+
+function readJson(path: string): unknown {
+  return JSON.parse(readFileSync(path, 'utf8')) as unknown;
+}
+
+function parseOrThrow<T>(schema: z.ZodType<T>, data: unknown, label: string): T {
+  const r = schema.safeParse(data);
+  if (!r.success) {
+    const first = r.error.issues[0]!;
+    throw new Error(`${label}: ${first.path.join('.')}: ${first.message}`);
+  }
+  return r.data;
+}
+
+/** Load and validate the gallery; every citation must resolve to validation/references.json and ids be unique. */
+export function loadGallery(dir: string = GALLERY_DIR): Gallery {
+  const barriers = parseOrThrow(fileSchema('barrier', BarrierRowSchema), readJson(join(dir, 'barriers.json')), 'barriers.json').rows;
+  const charges = parseOrThrow(fileSchema('charge', ChargeRowSchema), readJson(join(dir, 'charge.json')), 'charge.json').rows;
+  const bandBending = parseOrThrow(fileSchema('bandBending', BandBendingRowSchema), readJson(join(dir, 'bandbending.json')), 'bandbending.json').rows;
+  const references = parseOrThrow(z.array(CslItemSchema), readJson(join(dir, 'references.json')), 'references.json');
+  const refIds = new Set(references.map((r) => r.id));
+  const seen = new Set<string>();
+  for (const row of [...barriers, ...charges, ...bandBending]) {
+    if (!refIds.has(row.citation)) throw new Error(`gallery row ${row.id}: citation "${row.citation}" is not in references.json`);
+    if (seen.has(row.id)) throw new Error(`gallery row id "${row.id}" is used twice`);
+    seen.add(row.id);
+  }
+  return { barriers, charges, bandBending, references };
+}
+
+// ------------------------------------------------------------------------------------------ options
+
+/** Particle diameter used for charge rows that report no size, nm (stated in each row's note). */
+export const DEFAULT_PARTICLE_DIAMETER_NM = 2;
+
+export type SolveFunction = (options: Record<string, unknown>) => unknown;
+
+export interface ModelChoice {
+  /** passed as barrierModel; with the library defaults of the time */
+  barrierModel: BarrierModel;
+  /** further options added to every contact (never tuned to the gallery) */
+  extra?: Record<string, unknown>;
+}
+
+function base(row: { metalKey: string | null; supportKey: string | null }, T: number, model: ModelChoice): Record<string, unknown> {
+  return { metal: row.metalKey, support: row.supportKey, temperature: T, barrierModel: model.barrierModel, ...(model.extra ?? {}) };
+}
+
+/** Planar contact at the measured temperature and, where the paper gives it, donor density (cm^-3). */
+export function barrierOptions(row: BarrierRow, model: ModelChoice): Record<string, unknown> {
+  const o: Record<string, unknown> = { ...base(row, row.conditions.temperature_K, model), geometry: 'planar' };
+  if (row.conditions.donors_cm3 !== null) o.donors = row.conditions.donors_cm3;
+  return o;
+}
+
+/** Hemispherical particle of the measured diameter (or the default), library donor density. */
+export function chargeOptions(row: ChargeRow, model: ModelChoice): Record<string, unknown> {
+  return {
+    ...base(row, row.conditions.temperature_K, model),
+    geometry: 'hemisphere',
+    particleDiameter: row.conditions.particleDiameter_nm ?? DEFAULT_PARTICLE_DIAMETER_NM,
+  };
+}
+
+export function bandBendingOptions(row: BandBendingRow, model: ModelChoice): Record<string, unknown> {
+  const o: Record<string, unknown> = { ...base(row, row.conditions.temperature_K, model), geometry: 'planar' };
+  if (row.conditions.donors_cm3 !== null) o.donors = row.conditions.donors_cm3;
+  return o;
+}
+
+/** Information depth of the row's core level: Seah-Dench IMFP at E_kin = h nu - E_B, m. */
+export function rowImfp_m(row: BandBendingRow): number {
+  const a = monolayerThickness_m(row.supportMolarMass_g_mol, row.supportDensity_g_cm3, row.atomsPerFormulaUnit);
+  return seahDenchImfpCompound_m(kineticEnergy_eV(row.photonEnergy_eV, row.coreLevelBindingEnergy_eV), a);
+}
+
+/** The measured band bending after deposition: initial (0 if not reported) + change, eV. */
+export function measuredFinalBandBending_eV(row: BandBendingRow): number {
+  return (row.initialBandBending_eV ?? 0) + row.value;
+}
+
+// ------------------------------------------------------------------------------------------ statistics (pure)
+
+export interface Comparison {
+  predicted: number;
+  measured: number;
+}
+
+/** Mean absolute error, eV; null for no data. */
+export function meanAbsoluteError(items: readonly Comparison[]): number | null {
+  if (items.length === 0) return null;
+  return items.reduce((s, c) => s + Math.abs(c.predicted - c.measured), 0) / items.length;
+}
+
+export interface PairedBarrier {
+  pair: string;
+  predicted: number;
+  measured: number;
+}
+
+/**
+ * Group barrier comparisons by metal/support pair: the measured value of a pair is the mean of all its
+ * measurements (every method counts once per row), the predicted value is the mean prediction (rows of one pair
+ * can differ in temperature or donors).
+ */
+export function pairMeans(items: readonly PairedBarrier[]): (Comparison & { pair: string; rows: number })[] {
+  const groups = new Map<string, PairedBarrier[]>();
+  for (const it of items) groups.set(it.pair, [...(groups.get(it.pair) ?? []), it]);
+  return [...groups.entries()].map(([pair, g]) => ({
+    pair,
+    rows: g.length,
+    predicted: g.reduce((s, x) => s + x.predicted, 0) / g.length,
+    measured: g.reduce((s, x) => s + x.measured, 0) / g.length,
+  }));
+}
+
+export type ChargeSign = 'to-metal' | 'to-support' | 'mixed' | 'none';
+
+/** Below this many electrons per particle a prediction counts as "no transfer" (charge comes in whole electrons). */
+export const NO_TRANSFER_BELOW_ELECTRONS = 0.5;
+
+/** Direction of a predicted charge (electrons gained by the metal): 'none' when |N| < 0.5, else by sign. */
+export function signOf(electronsGained: number): Exclude<ChargeSign, 'mixed'> {
+  if (Math.abs(electronsGained) < NO_TRANSFER_BELOW_ELECTRONS) return 'none';
+  return electronsGained > 0 ? 'to-metal' : 'to-support';
+}
+
+/** Fraction of rows whose predicted sign equals the measured one ('mixed' rows are not counted); null if none. */
+export function signAgreement(items: readonly { predicted: number; sign: ChargeSign }[]): number | null {
+  const definite = items.filter((i) => i.sign !== 'mixed');
+  if (definite.length === 0) return null;
+  return definite.filter((i) => signOf(i.predicted) === i.sign).length / definite.length;
+}
+
+/** |predicted| lies within a factor `factor` of the measured magnitude range [lo, hi]: lo/factor <= |p| <= hi*factor. */
+export function withinFactor(predicted: number, range: readonly [number, number], factor = 3): boolean {
+  const p = Math.abs(predicted);
+  const lo = Math.min(range[0], range[1]);
+  const hi = Math.max(range[0], range[1]);
+  return p >= lo / factor && p <= hi * factor;
+}
+
+/** Fraction of rows within a factor of 3 of the measured magnitude range; null if none. */
+export function fractionWithinFactor(items: readonly { predicted: number; range: readonly [number, number] }[], factor = 3): number | null {
+  if (items.length === 0) return null;
+  return items.filter((i) => withinFactor(i.predicted, i.range, factor)).length / items.length;
+}
+
+// ------------------------------------------------------------------------------------------ running
+
+export type RowStatus = 'ok' | 'failed' | 'excluded';
+
+export interface ValidationRow {
+  kind: 'barrier' | 'charge' | 'bandBending';
+  id: string;
+  metal: string;
+  support: string;
+  /** library keys (null when not in the library) */
+  metalKey?: string | null;
+  supportKey?: string | null;
+  method: string;
+  citation: string;
+  verified: boolean;
+  /** measured value in the row's quantity (barrier eV; electrons per particle, null if only sign/range; final band bending eV) */
+  measured: number | null;
+  /** measured sign or range where that is what the paper gives */
+  measuredSign?: ChargeSign;
+  measuredRange?: [number, number] | null;
+  predicted: number | null;
+  status: RowStatus;
+  reason?: string;
+}
+
+export interface BarrierStatistics {
+  rows: number;
+  pairs: number;
+  oxides: number;
+  /** mean over pairs of |mean prediction - mean measurement|, eV */
+  meanAbsoluteError_eV: number | null;
+  /** the same over single rows, eV */
+  rowMeanAbsoluteError_eV: number | null;
+  /** the pair statistic restricted to rows with verified: true */
+  verifiedMeanAbsoluteError_eV: number | null;
+  failed: number;
+}
+
+export interface ChargeStatistics {
+  rows: number;
+  signRows: number;
+  signAgreement: number | null;
+  magnitudeRows: number;
+  withinFactor3: number | null;
+  failed: number;
+}
+
+export interface BandBendingStatistics {
+  rows: number;
+  meanAbsoluteError_eV: number | null;
+  failed: number;
+}
+
+export interface ValidationStatistics {
+  model: BarrierModel;
+  barrier: BarrierStatistics;
+  charge: ChargeStatistics;
+  bandBending: BandBendingStatistics;
+}
+
+export interface ValidationResult {
+  rows: ValidationRow[];
+  statistics: ValidationStatistics;
+}
+
+export interface ValidationOptions {
+  /** barrier model (default 'ideal') */
+  model?: BarrierModel;
+  /** extra contact options for every row (e.g. statistics), never fitted to the gallery */
+  extra?: Record<string, unknown>;
+  /** solver (default solveContact); it receives contact options and returns a ContactResult-like object */
+  solve?: SolveFunction;
+  /** gallery folder (default: the one shipped in validation/) */
+  galleryDir?: string;
+  /** include rows with verified: false (default true) */
+  includeUnverified?: boolean;
+}
+
+function tryNumber(f: () => number): { value: number } | { error: string } {
+  try {
+    const v = f();
+    if (!Number.isFinite(v)) return { error: 'the solver returned a non-finite value' };
+    return { value: v };
+  } catch (e) {
+    return { error: e instanceof Error ? e.message : String(e) };
+  }
+}
+
+function asResult(x: unknown): ContactResult {
+  return x as ContactResult;
+}
+
+/** Run every gallery row through the solver and summarise. */
+export function runValidation(options: ValidationOptions = {}): ValidationResult {
+  const model: ModelChoice = { barrierModel: options.model ?? 'ideal', extra: options.extra };
+  const solve: SolveFunction = options.solve ?? ((o) => solveContact(o as Parameters<typeof solveContact>[0]));
+  const gallery = loadGallery(options.galleryDir);
+  const keep = (r: { verified: boolean }) => options.includeUnverified !== false || r.verified;
+  const rows: ValidationRow[] = [];
+
+  const excludedReason = (r: { inStatistics: boolean; metalKey: string | null; supportKey: string | null }) =>
+    !r.inStatistics ? 'kept for the record, outside the comparison (see the row note)' : r.metalKey === null ? 'metal not in the library' : r.supportKey === null ? 'support not in the library' : undefined;
+
+  for (const r of gallery.barriers.filter(keep)) {
+    const row: ValidationRow = { kind: 'barrier', id: r.id, metal: r.metal, support: r.support, metalKey: r.metalKey, supportKey: r.supportKey, method: r.method, citation: r.citation, verified: r.verified, measured: r.value, predicted: null, status: 'ok' };
+    const why = excludedReason(r);
+    if (why) Object.assign(row, { status: 'excluded', reason: why });
+    else {
+      const p = tryNumber(() => asResult(solve(barrierOptions(r, model))).electronBarrier_eV);
+      if ('value' in p) row.predicted = p.value;
+      else Object.assign(row, { status: 'failed', reason: p.error });
+    }
+    rows.push(row);
+  }
+  for (const r of gallery.charges.filter(keep)) {
+    const row: ValidationRow = {
+      kind: 'charge', id: r.id, metal: r.metal, support: r.support, metalKey: r.metalKey, supportKey: r.supportKey, method: r.method, citation: r.citation, verified: r.verified,
+      measured: r.value, measuredSign: r.sign, measuredRange: r.magnitudeRange, predicted: null, status: 'ok',
+    };
+    const why = excludedReason(r);
+    if (why) Object.assign(row, { status: 'excluded', reason: why });
+    else {
+      const p = tryNumber(() => asResult(solve(chargeOptions(r, model))).electronsPerParticle);
+      if ('value' in p) row.predicted = p.value;
+      else Object.assign(row, { status: 'failed', reason: p.error });
+    }
+    rows.push(row);
+  }
+  for (const r of gallery.bandBending.filter(keep)) {
+    const row: ValidationRow = {
+      kind: 'bandBending', id: r.id, metal: r.metal, support: r.support, metalKey: r.metalKey, supportKey: r.supportKey, method: r.method, citation: r.citation, verified: r.verified,
+      measured: measuredFinalBandBending_eV(r), predicted: null, status: 'ok',
+    };
+    const why = excludedReason(r);
+    if (why) Object.assign(row, { status: 'excluded', reason: why });
+    else {
+      const p = tryNumber(() => {
+        const { x_m, bandBending_eV } = bandBendingProfile(asResult(solve(bandBendingOptions(r, model))));
+        return observedBandBending_eV(x_m, bandBending_eV, rowImfp_m(r), r.emissionAngle_deg);
+      });
+      if ('value' in p) row.predicted = p.value;
+      else Object.assign(row, { status: 'failed', reason: p.error });
+    }
+    rows.push(row);
+  }
+  return { rows, statistics: summarise(rows, model.barrierModel) };
+}
+
+/** Statistics of a set of compared rows (pure). */
+export function summarise(rows: readonly ValidationRow[], model: BarrierModel): ValidationStatistics {
+  const ok = (kind: ValidationRow['kind']) => rows.filter((r) => r.kind === kind && r.status === 'ok' && r.predicted !== null);
+  const failed = (kind: ValidationRow['kind']) => rows.filter((r) => r.kind === kind && r.status === 'failed').length;
+  const supportOf = (r: ValidationRow) => r.supportKey ?? r.support;
+  const metalOf = (r: ValidationRow) => r.metalKey ?? r.metal;
+
+  const barrierRows = ok('barrier');
+  const paired = (rs: ValidationRow[]) =>
+    pairMeans(rs.map((r) => ({ pair: `${metalOf(r)}|${supportOf(r)}`, predicted: r.predicted!, measured: r.measured! })));
+  const pairs = paired(barrierRows);
+  const oxides = new Set(barrierRows.map(supportOf));
+
+  const chargeRows = ok('charge');
+  const signItems = chargeRows.filter((r) => r.measuredSign !== undefined).map((r) => ({ predicted: r.predicted!, sign: r.measuredSign! }));
+  const magItems = chargeRows.filter((r) => r.measuredRange).map((r) => ({ predicted: r.predicted!, range: r.measuredRange! }));
+  const bbRows = ok('bandBending');
+
+  return {
+    model,
+    barrier: {
+      rows: barrierRows.length,
+      pairs: pairs.length,
+      oxides: oxides.size,
+      meanAbsoluteError_eV: meanAbsoluteError(pairs),
+      rowMeanAbsoluteError_eV: meanAbsoluteError(barrierRows.map((r) => ({ predicted: r.predicted!, measured: r.measured! }))),
+      verifiedMeanAbsoluteError_eV: meanAbsoluteError(paired(barrierRows.filter((r) => r.verified))),
+      failed: failed('barrier'),
+    },
+    charge: {
+      rows: chargeRows.length,
+      signRows: signItems.filter((i) => i.sign !== 'mixed').length,
+      signAgreement: signAgreement(signItems),
+      magnitudeRows: magItems.length,
+      withinFactor3: fractionWithinFactor(magItems),
+      failed: failed('charge'),
+    },
+    bandBending: {
+      rows: bbRows.length,
+      meanAbsoluteError_eV: meanAbsoluteError(bbRows.map((r) => ({ predicted: r.predicted!, measured: r.measured! }))),
+      failed: failed('bandBending'),
+    },
+  };
+}
+
+// ------------------------------------------------------------------------------------------ baseline
+
+/** Models in the committed baseline (validation/baseline.json). */
+export const BASELINE_MODELS: readonly BarrierModel[] = ['ideal', 'pinned'];
+
+/** Tolerances of the baseline test: an error may grow by this much, a fraction may drop by this much. */
+export const BASELINE_TOLERANCE = { error_eV: 0.01, fraction: 0.001 } as const;
+
+export interface Baseline {
+  $comment: string;
+  statistics: Record<string, ValidationStatistics>;
+}
+
+/** Statistics of every baseline model with the current code and library (what validation/baseline.json holds). */
+export function computeBaseline(solve?: SolveFunction): Baseline {
+  const statistics: Record<string, ValidationStatistics> = {};
+  for (const model of BASELINE_MODELS) statistics[model] = runValidation({ model, ...(solve ? { solve } : {}) }).statistics;
+  return {
+    $comment:
+      'Validation statistics with library defaults, recomputed by test/validation.test.ts, which fails if they get worse. ' +
+      'Regenerate after a deliberate change (node -e "import(\'./dist/validation/gallery.js\').then(m => m.writeBaseline())" after npm run build) and say why in the commit.',
+    statistics,
+  };
+}
+
+/** Write validation/baseline.json from the current code (deliberate use only). */
+export function writeBaseline(dir: string = GALLERY_DIR): Baseline {
+  const b = computeBaseline();
+  writeFileSync(join(dir, 'baseline.json'), `${JSON.stringify(b, null, 1)}\n`, 'utf8');
+  return b;
+}
+
+/**
+ * Ways the current statistics are worse than the baseline (empty: not worse). A change in how many rows, pairs or
+ * failures are compared is reported too: the numbers are then not comparable and the baseline must be regenerated.
+ */
+export function regressions(current: ValidationStatistics, base: ValidationStatistics, tol = BASELINE_TOLERANCE): string[] {
+  const out: string[] = [];
+  const m = current.model;
+  const sameCount = (label: string, a: number, b: number) => {
+    if (a !== b) out.push(`${m}: ${label} changed from ${b} to ${a}: regenerate validation/baseline.json and say why`);
+  };
+  sameCount('barrier rows', current.barrier.rows, base.barrier.rows);
+  sameCount('barrier pairs', current.barrier.pairs, base.barrier.pairs);
+  sameCount('charge rows', current.charge.rows, base.charge.rows);
+  sameCount('band-bending rows', current.bandBending.rows, base.bandBending.rows);
+  const worseError = (label: string, a: number | null, b: number | null) => {
+    if (b !== null && (a === null || a > b + tol.error_eV)) out.push(`${m}: ${label} ${a} eV is worse than the baseline ${b} eV`);
+  };
+  const worseFraction = (label: string, a: number | null, b: number | null) => {
+    if (b !== null && (a === null || a < b - tol.fraction)) out.push(`${m}: ${label} ${a} is worse than the baseline ${b}`);
+  };
+  worseError('barrier mean absolute error', current.barrier.meanAbsoluteError_eV, base.barrier.meanAbsoluteError_eV);
+  worseError('verified-row barrier error', current.barrier.verifiedMeanAbsoluteError_eV, base.barrier.verifiedMeanAbsoluteError_eV);
+  worseFraction('charge sign agreement', current.charge.signAgreement, base.charge.signAgreement);
+  worseFraction('charge within a factor of 3', current.charge.withinFactor3, base.charge.withinFactor3);
+  worseError('band-bending mean absolute error', current.bandBending.meanAbsoluteError_eV, base.bandBending.meanAbsoluteError_eV);
+  return out;
+}

@@ -1,0 +1,131 @@
+// Validation report: a text table of every gallery row beside its prediction, the statistics, and a
+// predicted-vs-measured scatter (Vega-Lite, rendered with the shared figure helpers).
+import { mkdir, writeFile } from 'node:fs/promises';
+import { join } from 'node:path';
+import type { TopLevelSpec } from 'vega-lite';
+import { BASE_CONFIG, PALETTE } from '../output/figures.js';
+import { writeFigure } from '../output/render.js';
+import { formatNumber } from '../output/summary.js';
+import type { ValidationResult, ValidationRow, ValidationStatistics } from './gallery.js';
+
+const SCHEMA = 'https://vega.github.io/schema/vega-lite/v6.json';
+
+function pad(s: string, n: number): string {
+  return s.length >= n ? s : s + ' '.repeat(n - s.length);
+}
+
+function measuredText(r: ValidationRow): string {
+  if (r.kind === 'charge' && r.measuredSign === 'none') return 'none';
+  if (r.kind === 'charge' && r.measured === null) {
+    const range = r.measuredRange ? ` |N| ${formatNumber(r.measuredRange[0])}-${formatNumber(r.measuredRange[1])}` : '';
+    return `${r.measuredSign ?? ''}${range}`;
+  }
+  return formatNumber(r.measured);
+}
+
+const UNIT: Record<ValidationRow['kind'], string> = { barrier: 'eV', charge: 'e/particle', bandBending: 'eV' };
+
+/** Plain-text table of the rows (one line each) followed by the statistics. */
+export function validationTable(result: ValidationResult): string {
+  const head = ['kind', 'id', 'metal/support', 'measured', 'predicted', 'unit', 'verified', 'status'];
+  const lines = result.rows.map((r) => [
+    r.kind,
+    r.id,
+    `${r.metal} | ${r.support}`,
+    measuredText(r),
+    r.predicted === null ? '-' : formatNumber(r.predicted),
+    UNIT[r.kind],
+    r.verified ? 'yes' : 'no (memory)',
+    r.status === 'ok' ? 'ok' : `${r.status}: ${r.reason ?? ''}`,
+  ]);
+  const widths = head.map((h, i) => Math.min(48, Math.max(h.length, ...lines.map((l) => l[i]!.length))));
+  const fmt = (cells: string[]) => cells.map((c, i) => (i === cells.length - 1 ? c : pad(c, widths[i]!))).join('  ');
+  return [fmt(head), fmt(widths.map((w) => '-'.repeat(w))), ...lines.map(fmt), '', statisticsText(result.statistics)].join('\n');
+}
+
+function pct(x: number | null): string {
+  return x === null ? 'n/a' : `${Math.round(x * 100)}%`;
+}
+
+/** The statistics in a few lines. */
+export function statisticsText(s: ValidationStatistics): string {
+  const b = s.barrier;
+  const c = s.charge;
+  return [
+    `model: ${s.model}`,
+    `barrier heights: mean absolute error ${formatNumber(b.meanAbsoluteError_eV)} eV over ${b.pairs} metal/oxide pairs on ${b.oxides} oxides ` +
+      `(each pair: mean of its measurements; ${b.rows} rows, per-row MAE ${formatNumber(b.rowMeanAbsoluteError_eV)} eV, ` +
+      `verified rows only ${formatNumber(b.verifiedMeanAbsoluteError_eV)} eV; ${b.failed} failed)`,
+    `particle charge: sign agrees for ${pct(c.signAgreement)} of ${c.signRows} rows; within a factor of 3 of the measured magnitude for ` +
+      `${pct(c.withinFactor3)} of ${c.magnitudeRows} rows (${c.failed} failed)`,
+    `band bending seen by photoemission: mean absolute error ${formatNumber(s.bandBending.meanAbsoluteError_eV)} eV over ${s.bandBending.rows} rows (${s.bandBending.failed} failed)`,
+  ].join('\n');
+}
+
+/** Predicted vs measured for the rows with a number on both sides, one panel-free scatter with the y = x line. */
+export function predictedVsMeasuredSpec(result: ValidationResult, kind: 'barrier' | 'bandBending' = 'barrier'): TopLevelSpec {
+  const values = result.rows
+    .filter((r) => r.kind === kind && r.status === 'ok' && r.predicted !== null && r.measured !== null)
+    .map((r) => ({ id: r.id, oxide: r.supportKey ?? r.support, pair: `${r.metal} | ${r.support}`, measured: r.measured!, predicted: r.predicted!, verified: r.verified ? 'seen' : 'from memory', method: r.method }));
+  const all = values.flatMap((v) => [v.measured, v.predicted]);
+  const lo = all.length ? Math.min(0, ...all) : 0;
+  const hi = all.length ? Math.max(...all) * 1.05 : 1;
+  const label = kind === 'barrier' ? 'barrier height (eV)' : 'band bending seen by photoemission (eV)';
+  return {
+    $schema: SCHEMA,
+    title: { text: kind === 'barrier' ? 'Barrier heights: predicted vs measured' : 'Band bending: predicted vs measured', subtitle: `model: ${result.statistics.model}; line: y = x` },
+    config: BASE_CONFIG,
+    width: 420,
+    height: 420,
+    layer: [
+      {
+        data: { values: [{ v: lo }, { v: hi }] },
+        mark: { type: 'line', color: PALETTE.grey, strokeDash: [4, 3] },
+        encoding: {
+          x: { field: 'v', type: 'quantitative', scale: { domain: [lo, hi] }, title: `measured ${label}` },
+          y: { field: 'v', type: 'quantitative', scale: { domain: [lo, hi] }, title: `predicted ${label}` },
+        },
+      },
+      {
+        data: { values },
+        mark: { type: 'point', filled: true, size: 60 },
+        encoding: {
+          x: { field: 'measured', type: 'quantitative', scale: { domain: [lo, hi] } },
+          y: { field: 'predicted', type: 'quantitative', scale: { domain: [lo, hi] } },
+          color: { field: 'oxide', type: 'nominal', title: 'support', scale: { scheme: 'tableau10' } },
+          shape: { field: 'verified', type: 'nominal', title: 'value', scale: { domain: ['seen', 'from memory'], range: ['circle', 'triangle'] } },
+          tooltip: [
+            { field: 'id', type: 'nominal' },
+            { field: 'pair', type: 'nominal' },
+            { field: 'method', type: 'nominal' },
+            { field: 'measured', type: 'quantitative', format: '.3f' },
+            { field: 'predicted', type: 'quantitative', format: '.3f' },
+          ],
+        },
+      },
+    ],
+  } as TopLevelSpec;
+}
+
+export interface ValidationReportPaths {
+  table: string;
+  json: string;
+  figures: string[];
+}
+
+/** Write validation.txt, validation.json and the predicted-vs-measured figures (barrier; band bending when compared) into dir. */
+export async function writeValidationReport(dir: string, result: ValidationResult): Promise<ValidationReportPaths> {
+  await mkdir(dir, { recursive: true });
+  const table = join(dir, 'validation.txt');
+  const json = join(dir, 'validation.json');
+  await writeFile(table, `${validationTable(result)}\n`, 'utf8');
+  await writeFile(json, `${JSON.stringify(result, null, 2)}\n`, 'utf8');
+  const figures: string[] = [];
+  const fig = await writeFigure(dir, 'barrier-predicted-vs-measured', predictedVsMeasuredSpec(result, 'barrier'));
+  figures.push(fig.svgPath);
+  if (result.rows.some((r) => r.kind === 'bandBending' && r.status === 'ok')) {
+    const bb = await writeFigure(dir, 'band-bending-predicted-vs-measured', predictedVsMeasuredSpec(result, 'bandBending'));
+    figures.push(bb.svgPath);
+  }
+  return { table, json, figures };
+}
