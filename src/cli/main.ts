@@ -191,7 +191,9 @@ function buildProgram(): Command {
     });
     if (typeof opts['plot'] === 'string') {
       const plotPath = opts['plot'];
-      if (existsSync(plotPath) && opts['force'] !== true) throw new InputError('--plot', `${plotPath} exists; use --force to overwrite`);
+      for (const target of [plotPath, `${plotPath}.vl.json`]) {
+        if (existsSync(target) && opts['force'] !== true) throw new InputError('--plot', `${target} exists; use --force to overwrite`);
+      }
       const points = parsed.rows.map((row) => {
         const perArea = row.capacitance_F_per_m2 ?? (row.capacitance_F ?? NaN) / (electrodeArea_m2 ?? NaN);
         return { potential_V: row.potential_V, inverseCapSquared: 1 / (perArea * perArea) };

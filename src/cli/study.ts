@@ -1,13 +1,14 @@
 // `bandbend study FILE`: parameter sweeps from a study file, rows written as they complete, plus line plots.
 import type { Command } from 'commander';
-import { readFileSync, existsSync } from 'node:fs';
-import { join } from 'node:path';
 import { InputError } from '../errors.js';
-import { loadStudyFile, sweptColumn, isNumericField, axisLength, type Study } from '../study/studyFile.js';
-import { runStudy, RESULT_FILES, type StudyFormat } from '../study/runner.js';
+import { loadStudyFile } from '../study/studyFile.js';
+import { runStudy, defaultJobs, checkFormats, parseShard, readStudyRecord, StudyWriteError, type StudyFormat, type ResumeInfo } from '../study/runner.js';
+import { mergeShards } from '../study/merge.js';
 import { createProgress, type Progress } from '../study/progress.js';
-import { linePlotSpec, type Row } from '../output/figures.js';
-import { writeStudyReport } from '../output/report.js';
+import { writeStudyReportFromResults, checkStudyReportDir, ReportInterrupted, STUDY_REPORT_DIR } from '../output/studyReport.js';
+import { join } from 'node:path';
+import { existsSync } from 'node:fs';
+import type { Study } from '../study/studyFile.js';
 
 const EXAMPLE = `
 Study file (YAML or JSON):
@@ -22,55 +23,101 @@ Study file (YAML or JSON):
 
 Examples:
   bandbend study examples/study-support-reduction.yaml --out out/reduction
-  bandbend study sweep.json --out out/sweep --jobs 2 --format csv`;
+  bandbend study sweep.json --out out/sweep --jobs 2 --format csv
+  bandbend study sweep.json --out out/sweep --resume          # continue after a crash or Ctrl-C
+  bandbend study sweep.json --out out/shard-3 --shard 3/8     # points i with i % 8 == 2
+  bandbend study merge out/shard-* --out out/all              # join shards 1/8 .. 8/8
+
+--resume keeps the complete rows on disk (a partial last line is cut off) and computes the rest;
+a lock file (<out>/.bandbend-study.lock) makes a second run on the same folder refuse.
+A full disk or file-size limit stops the study with exit 1; every line on disk stays complete.`;
 
 export function registerStudyCommand(program: Command): void {
   program
-    .command('study <FILE>')
-    .description('parameter study from a study file: rows written as they complete (CSV/JSONL) and line plots')
+    .command('study <FILE> [DIRS...]')
+    .description('parameter study from a study file: rows written as they complete (CSV/JSONL) and plots; `study merge DIR... --out DIR` joins shards')
     .requiredOption('--out <DIR>', 'output folder')
-    .option('--jobs <N>', 'worker threads', '1')
-    .option('--format <LIST>', 'result formats: csv, json or csv,json', 'csv,json')
-    .option('--no-plots', 'skip the line plots and HTML report')
+    .option('--jobs <N>', 'worker threads (default: the available cores)')
+    .option('--format <LIST>', 'result formats: csv, json or csv,json (default csv,json; on --resume: as before)')
+    .option('--no-plots', 'skip the plots and HTML report')
     .option('--force', 'replace the results of an earlier run in the folder')
+    .option('--resume', 'continue the run in --out from the complete rows on disk')
+    .option('--shard <K/N>', 'compute only points i with i % N == K-1 (merge with `study merge`)')
+    .option('--point-timeout <S>', 'watchdog: seconds per point before a silent worker is replaced', '300')
     .addHelpText('after', EXAMPLE)
-    .action(async (file: string, opts: Record<string, unknown>) => {
-      const study = loadStudyFile(file);
-      const jobs = Number(opts['jobs']);
-      const formats = String(opts['format'])
-        .split(',')
-        .map((f) => f.trim())
-        .filter((f) => f !== '');
-      for (const f of formats) if (f !== 'csv' && f !== 'json') throw new InputError('--format', `unknown format "${f}"`, 'csv, json');
+    .action(async (file: string, dirs: string[], opts: Record<string, unknown>) => {
       const outDir = String(opts['out']);
       const controller = new AbortController();
       const onSignal = (): void => controller.abort();
       process.once('SIGINT', onSignal);
       process.once('SIGTERM', onSignal);
       const bar: { progress: Progress | null } = { progress: null };
+      const onProgress = (_done: number, all: number, added: number): void => {
+        bar.progress ??= createProgress(all, 'study');
+        bar.progress.tick(added);
+      };
       try {
+        if (file === 'merge') {
+          await mergeCommand(dirs, outDir, opts, controller.signal, onProgress);
+          return;
+        }
+        if (dirs.length > 0) throw new InputError('study', `unexpected argument(s) ${dirs.join(' ')}`, 'one study file');
+        const study = loadStudyFile(file);
+        const jobs = opts['jobs'] === undefined ? defaultJobs() : Number(opts['jobs']);
+        const formats =
+          opts['format'] === undefined
+            ? undefined
+            : checkFormats(
+                String(opts['format'])
+                  .split(',')
+                  .map((f) => f.trim())
+                  .filter((f) => f !== ''),
+              );
+        const pointTimeout_s = Number(opts['pointTimeout'] ?? opts['point-timeout']);
+        const plots = opts['plots'] !== false;
+        if (plots && opts['resume'] !== true) checkStudyReportDir(join(outDir, STUDY_REPORT_DIR), opts['force'] === true);
         const summary = await runStudy({
           study,
           outDir,
           jobs,
           force: opts['force'] === true,
-          formats: formats as StudyFormat[],
+          resume: opts['resume'] === true,
+          ...(formats !== undefined ? { formats: formats as StudyFormat[] } : {}),
+          shard: typeof opts['shard'] === 'string' ? parseShard(opts['shard']) : null,
+          pointTimeout_s,
           signal: controller.signal,
-          onProgress: (_done, all, added) => {
-            bar.progress ??= createProgress(all, study.name);
-            bar.progress.tick(added);
-          },
+          onResume: (info) => process.stderr.write(resumeLine(info)),
+          onProgress,
         });
         bar.progress?.done();
         process.stderr.write(
           `${summary.points} of ${summary.total} points written (${summary.failed} failed) in ${summary.elapsed_s.toFixed(2)} s` +
-            `${summary.interrupted ? ' - interrupted, rows on disk are complete' : ''}\n`,
+            `${summary.shard ? ` [shard ${summary.shard.index}/${summary.shard.count} of ${summary.studyTotal} points]` : ''}` +
+            `${summary.watchdogRestarts > 0 ? ` - ${summary.watchdogRestarts} silent worker(s) replaced` : ''}` +
+            `${summary.interrupted ? ' - interrupted, rows on disk are complete; continue with --resume' : ''}\n`,
         );
-        if (opts['plots'] !== false && !summary.interrupted && summary.jsonlPath !== null) {
-          const report = await writeStudyPlots(study, outDir, summary.jsonlPath);
-          if (report) process.stderr.write(`report written: ${report}\n`);
+        if (summary.interrupted) {
+          process.exitCode = 130;
+          return;
         }
-        if (summary.interrupted) process.exitCode = 130;
+        if (plots) {
+          const note = summary.shard ? `shard ${summary.shard.index}/${summary.shard.count} of a ${summary.studyTotal}-point study` : undefined;
+          await writeReport(study, outDir, { points: summary.points, total: summary.total, failed: summary.failed, elapsed_s: summary.elapsed_s, ...(note ? { note } : {}) }, controller.signal);
+        }
+      } catch (err) {
+        bar.progress?.done();
+        if (err instanceof StudyWriteError) {
+          // one clear line, exit 1 (the rows on disk are complete)
+          process.stderr.write(`bandbend: cannot write results: ${err.message}\n`);
+          process.exitCode = 1;
+          return;
+        }
+        if (err instanceof ReportInterrupted) {
+          process.stderr.write('interrupted while writing the report; results are complete, no report written\n');
+          process.exitCode = 130;
+          return;
+        }
+        throw err;
       } finally {
         process.removeListener('SIGINT', onSignal);
         process.removeListener('SIGTERM', onSignal);
@@ -78,32 +125,37 @@ export function registerStudyCommand(program: Command): void {
     });
 }
 
-/** Line plots of every numeric output against the first numeric swept input, coloured by the second axis. */
-async function writeStudyPlots(study: Study, outDir: string, jsonlPath: string): Promise<string | null> {
-  if (!existsSync(jsonlPath)) return null;
-  const rows: Row[] = readFileSync(jsonlPath, 'utf8')
-    .split('\n')
-    .filter((l) => l.trim() !== '')
-    .map((l) => JSON.parse(l) as Row)
-    .sort((a, b) => Number(a['index']) - Number(b['index']));
-  // x: the numeric axis with the most points; colour: the next axis
-  const numericAxes = study.sweep.axes.filter((a) => isNumericField(a.field)).sort((a, b) => axisLength(b) - axisLength(a));
-  if (numericAxes.length === 0 || rows.length === 0) return null;
-  const x = sweptColumn(numericAxes[0]!);
-  const otherAxes = study.sweep.axes.filter((a) => a !== numericAxes[0]);
-  const color = otherAxes.length > 0 ? sweptColumn(otherAxes[0]!) : undefined;
-  const xLog = 'log' in numericAxes[0]! && (numericAxes[0] as { log?: unknown }).log !== undefined;
-  const plots = study.outputs
-    .filter((o) => rows.some((r) => typeof r[o] === 'number'))
-    .map((output) => ({
-      name: `plot-${output.replace(/[^A-Za-z0-9_-]/g, '_')}`,
-      title: output,
-      spec: linePlotSpec(rows, { x, y: output, xLog, ...(color ? { color } : {}), title: `${output} against ${x}` }),
-    }));
-  const paths = await writeStudyReport(join(outDir, 'report'), rows, plots, {
-    title: `Study ${study.name}`,
-    force: true,
-    description: `${rows.length} points; data in ../${RESULT_FILES.csv}`,
-  });
-  return paths.htmlPath;
+function resumeLine(info: ResumeInfo): string {
+  const parts = [`resuming: ${info.kept} complete rows kept (points before them skipped${info.keptFailed > 0 ? `, ${info.keptFailed} of them failed` : ''})`];
+  for (const c of info.cut) parts.push(`${c.bytes} bytes after the last complete row of ${c.file} removed`);
+  if (info.droppedLines > 0) parts.push(`${info.droppedLines} line(s) without a matching row in the other file dropped`);
+  if (info.staleLock) parts.push(`stale lock of process ${info.staleLock.pid} (started ${info.staleLock.startedAt}) taken over`);
+  return `${parts.join('; ')}\n`;
+}
+
+async function writeReport(study: Study, outDir: string, run: { points: number; total: number; failed: number; elapsed_s?: number; note?: string }, signal: AbortSignal): Promise<void> {
+  const paths = await writeStudyReportFromResults({ outDir, study, run, force: true, signal });
+  process.stderr.write(`report written: ${paths.htmlPath} (${(paths.bytes / 1e6).toFixed(2)} MB)\n`);
+}
+
+async function mergeCommand(
+  dirs: string[],
+  outDir: string,
+  opts: Record<string, unknown>,
+  signal: AbortSignal,
+  onProgress: (done: number, total: number, added: number) => void,
+): Promise<void> {
+  const plots = opts['plots'] !== false;
+  if (plots) checkStudyReportDir(join(outDir, STUDY_REPORT_DIR), opts['force'] === true);
+  const merged = await mergeShards({ dirs, outDir, force: opts['force'] === true, signal, onProgress });
+  process.stderr.write(`${merged.points} rows merged from ${merged.shards} shards (${merged.failed} failed)${merged.interrupted ? ' - interrupted' : ''}\n`);
+  if (merged.interrupted) {
+    process.exitCode = 130;
+    return;
+  }
+  const record = readStudyRecord(merged.studyPath);
+  if (plots && existsSync(merged.studyPath)) {
+    // the study as recorded (a materials library given in memory is not recorded: files only)
+    await writeReport(record.study as Study, outDir, { points: merged.points, total: merged.points, failed: merged.failed }, signal);
+  }
 }

@@ -1,5 +1,6 @@
 // One study point = one solveContact call reduced to the requested outputs; and the worker-thread
-// side of `runStudy` with jobs > 1 (compiled to dist/study/worker.js).
+// side of `runStudy` with jobs > 1 (compiled to dist/study/worker.js). A worker is started once per
+// run, loads the materials library once and then answers batches until it is terminated.
 //
 // Protocol (structured-clone messages, no Maps):
 //   workerData: WorkerSetup (base options without materials, materials file list or library entries, outputs)
@@ -75,8 +76,27 @@ function setupMaterials(m: WorkerMaterials): MaterialsLibrary {
   return 'files' in m ? loadLibrary(m.files) : libraryFromEntries(m.entries);
 }
 
+/**
+ * Test hook (for the watchdog test only): BANDBEND_TEST_WORKER_HANG=3,17 makes a worker thread stop
+ * answering when it reaches point index 3 or 17. Read in worker threads only, never in the main thread.
+ */
+export const HANG_ENV = 'BANDBEND_TEST_WORKER_HANG';
+
+function hangIndices(): Set<number> {
+  const text = process.env[HANG_ENV];
+  if (text === undefined || text.trim() === '') return new Set();
+  return new Set(text.split(',').map((s) => Number(s.trim())).filter((n) => Number.isInteger(n)));
+}
+
+/** Block this thread for good, in short waits so that Worker.terminate() can still stop it. */
+function hangForever(): never {
+  const cell = new Int32Array(new SharedArrayBuffer(4));
+  for (;;) Atomics.wait(cell, 0, 0, 50);
+}
+
 /** The worker loop: load the library once, then answer batches until terminated. */
 export function serveWorker(port: MessagePort, setup: WorkerSetup): void {
+  const hang = hangIndices();
   let lib: MaterialsLibrary;
   try {
     lib = setupMaterials(setup.materials);
@@ -86,7 +106,7 @@ export function serveWorker(port: MessagePort, setup: WorkerSetup): void {
   }
   port.on('message', (msg: MainToWorker) => {
     if (msg.type !== 'batch') return;
-    const rows = msg.points.map((p) => evaluatePoint({ ...setup.base, ...p.overrides, materials: lib }, setup.outputs, p.index));
+    const rows = msg.points.map((p) => (hang.has(p.index) ? hangForever() : evaluatePoint({ ...setup.base, ...p.overrides, materials: lib }, setup.outputs, p.index)));
     port.postMessage({ type: 'rows', id: msg.id, rows } satisfies WorkerToMain);
   });
   port.postMessage({ type: 'ready' } satisfies WorkerToMain);
