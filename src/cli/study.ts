@@ -126,7 +126,11 @@ export function registerStudyCommand(program: Command): void {
 }
 
 function resumeLine(info: ResumeInfo): string {
-  const parts = [`resuming: ${info.kept} complete rows kept (points before them skipped${info.keptFailed > 0 ? `, ${info.keptFailed} of them failed` : ''})`];
+  const parts = [
+    info.kept === 0
+      ? 'resuming: no complete rows on disk, starting at the first point'
+      : `resuming: ${info.kept} complete rows kept, so the first ${info.kept} points are skipped${info.keptFailed > 0 ? ` (${info.keptFailed} of those rows are failed points, kept as results)` : ''}`,
+  ];
   for (const c of info.cut) parts.push(`${c.bytes} bytes after the last complete row of ${c.file} removed`);
   if (info.droppedLines > 0) parts.push(`${info.droppedLines} line(s) without a matching row in the other file dropped`);
   if (info.staleLock) parts.push(`stale lock of process ${info.staleLock.pid} (started ${info.staleLock.startedAt}) taken over`);
