@@ -17,7 +17,7 @@ import { InputError } from '../errors.js';
 import { StudyAggregator, fieldName, inputTitle, outputTitle, spansDecades, splitCsvLine, type AggregatedPoint, type AxisGroups } from '../study/aggregate.js';
 import { axisValues } from '../study/sweep.js';
 import { studyColumns, type Study } from '../study/studyFile.js';
-import { BASE_CONFIG, axisFormatFor } from './figures.js';
+import { BASE_CONFIG, axisFormatFor, decadeTicks } from './figures.js';
 import { escapeHtml } from './escape.js';
 import { renderSvg, svgForInline } from './render.js';
 
@@ -123,11 +123,11 @@ export function studyPlotSpec(points: readonly AggregatedPoint[], plan: StudyAgg
         type: 'quantitative' as const,
         title: x.title,
         scale: xLog ? { type: 'log' as const } : { zero: false },
-        axis: { format: axisFormatFor(xNums, xLog) },
+        axis: logAxis(xNums, xLog),
       }
     : { field: 'x', type: 'ordinal' as const, title: x.title, sort: x.labels };
   const yScale = yLog ? { type: 'log' as const } : { zero: false };
-  const yAxis = { format: axisFormatFor(ys, yLog) };
+  const yAxis = logAxis(ys, yLog);
   const colorEnc = (g: AxisGroups | null): Record<string, unknown> =>
     g === null
       ? { value: '#4c78a8' }
@@ -158,6 +158,14 @@ export function studyPlotSpec(points: readonly AggregatedPoint[], plan: StudyAgg
     } as unknown as TopLevelSpec;
   }
   return { $schema: SCHEMA, title, config: BASE_CONFIG, data, ...unit } as unknown as TopLevelSpec;
+}
+
+/** Axis labels: decades only on a log axis (10^k, no crowded minor labels). */
+function logAxis(values: readonly number[], log: boolean): Record<string, unknown> {
+  if (!log) return { format: axisFormatFor(values, false) };
+  const pos = values.filter((v) => v > 0 && Number.isFinite(v));
+  const ticks = decadeTicks(Math.min(...pos), Math.max(...pos));
+  return ticks.length >= 2 ? { values: ticks, format: axisFormatFor(ticks, true) } : { format: axisFormatFor(values, true) };
 }
 
 // ---------------------------------------------------------------------------------------------
