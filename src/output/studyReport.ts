@@ -294,7 +294,7 @@ export async function writeStudyReportFromResults(opts: StudyReportOptions): Pro
       const specText = `${JSON.stringify(spec)}\n`;
       await writeFile(join(tmp, `${name}.svg`), svg.endsWith('\n') ? svg : `${svg}\n`, 'utf8');
       await writeFile(join(tmp, `${name}.vl.json`), specText, 'utf8');
-      bytes += Buffer.byteLength(svg) * 2 + Buffer.byteLength(specText);
+      bytes += Buffer.byteLength(svg) + Buffer.byteLength(specText); // the SVG file; its inline copy is counted with index.html
       figures.push({ name, title: `${o.title} against ${agg.plan.x.title}`, svg });
     }
     checkAbort(opts.signal);
