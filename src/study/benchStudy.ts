@@ -114,7 +114,7 @@ export async function benchLargeStudy(options: { points?: number; jobs?: number;
     const t0 = performance.now();
     const summary = await runStudy({ study, outDir: dir, jobs, force: true });
     const t1 = performance.now();
-    const report = await writeStudyReportFromResults({ outDir: dir, study, run: { points: summary.points, total: summary.total, failed: summary.failed }, force: true });
+    await writeStudyReportFromResults({ outDir: dir, study, run: { points: summary.points, total: summary.total, failed: summary.failed }, force: true });
     const t2 = performance.now();
     const resultsBytes = ['results.csv', 'results.jsonl'].reduce((s, f) => s + statSync(join(dir, f)).size, 0);
     return {
