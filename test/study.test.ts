@@ -502,3 +502,86 @@ describe('progress', () => {
     expect(formatProgress('x', 25, 100, 10, 8)).toBe('x [##......]  25% 25/100 10s eta 30s');
   });
 });
+
+describe('study report (streaming aggregation)', () => {
+  it('reservoir quantiles are exact below capacity and bounded above it', async () => {
+    const { Reservoir } = await import('../src/study/aggregate.js');
+    // order statistics of 1..101: median 51, 5th percentile 6, 95th 96 (linear interpolation, Hyndman & Fan type 7)
+    const r = new Reservoir(256);
+    for (let v = 101; v >= 1; v--) r.add(v);
+    expect([r.quantile(0.5), r.quantile(0.05), r.quantile(0.95), r.min, r.max, r.n]).toEqual([51, 6, 96, 1, 101, 101]);
+    // 1e5 values from a uniform grid on [0, 1): sample median within 0.1 of 0.5 with 256 kept values
+    const big = new Reservoir(256, 7);
+    for (let i = 0; i < 100_000; i++) big.add(((i * 7919) % 100_000) / 100_000);
+    expect(Math.abs(big.quantile(0.5) - 0.5)).toBeLessThan(0.1);
+    expect(big.n).toBe(100_000);
+  });
+
+  it('plans x, colour and panels; names and units instead of raw field names', async () => {
+    const { planAggregation, outputTitle, inputTitle } = await import('../src/study/aggregate.js');
+    const s = study({
+      base: { metal: 'Pt', support: 'CeO2' },
+      sweep: {
+        axes: [
+          { field: 'reductionTemperature', values: [573, 673, 773], unit: 'K' },
+          { field: 'hydrogenToWater', log: { from: 1e-2, to: 1e4, points: 13 } },
+          { field: 'particleDiameter', values: [1, 2, 5, 10], unit: 'nm' },
+          { field: 'donorLevel', values: [0.1, 0.2] },
+        ],
+      },
+      outputs: ['pretreatment.vacancyDensity_cm3', 'bandBending_eV'],
+    });
+    const plan = planAggregation(s);
+    expect(plan.x.axis.field).toBe('hydrogenToWater');
+    expect(plan.x.log).toBe(true);
+    expect(plan.color?.axis.field).toBe('reductionTemperature');
+    expect(plan.facet?.axis.field).toBe('particleDiameter');
+    expect(plan.rest.map((a) => a.field)).toEqual(['donorLevel']);
+    expect(outputTitle('pretreatment.vacancyDensity_cm3')).toBe('oxygen-vacancy density (cm^-3)');
+    expect(outputTitle('bandBending_eV')).toBe('band bending (eV)');
+    expect(outputTitle('exchange.equilibrationTimeLog10_s')).toBe('log10 equilibration time (log10 s)');
+    expect(inputTitle({ field: 'donors', unit: 'cm^-3' })).toBe('donor density (cm^-3)');
+    expect(inputTitle({ field: 'particleDiameter' })).toBe('particle diameter (nm)');
+  });
+
+  it('writes a bounded report with the system and base conditions at the top', async () => {
+    const s = withMaterials(
+      builtFile.parseStudy({
+        name: 'report-check',
+        base: { ...CUSTOM, geometry: 'planar' },
+        sweep: {
+          axes: [
+            { field: 'donors', log: { from: 1e16, to: 1e19, points: 7 }, unit: 'cm^-3' },
+            { field: 'temperature', values: [300, 500], unit: 'K' },
+            { field: 'permittivity', values: [5, 20] },
+            { field: 'donorLevel', values: [0.05, 0.2] },
+          ],
+        },
+        outputs: ['bandBending_eV', 'bulk.electronDensity_cm3', 'direction'],
+      }) as Study,
+      emptyLibrary(),
+    );
+    const out = join(work, 'report-check');
+    const summary = await built.runStudy({ study: s, outDir: out, jobs: 1 });
+    const { writeStudyReportFromResults } = await import('../dist/output/studyReport.js');
+    const paths = await writeStudyReportFromResults({ outDir: out, study: s, run: { points: summary.points, total: summary.total, failed: summary.failed } });
+    const html = readFileSync(paths.htmlPath, 'utf8');
+    const top = html.slice(0, html.indexOf('<h2>Sweep'));
+    expect(top).toContain('custom metal (work function 5.3 eV) on custom support');
+    expect(top).toContain('<td>electron effective mass (m_e)</td><td>electronMass</td><td>0.3</td>');
+    expect(top).toContain('custom support (electron affinity 4.2 eV, band gap 3.2 eV)');
+    expect(top).toContain('planar');
+    expect(html).not.toContain('>bulk.electronDensity_cm3 against');
+    expect(html).toContain('bulk electron density (cm^-3) against donor density (cm^-3)');
+    // 7 x 2 x 2 x 2 = 56 rows; donorLevel aggregated: median line and 5-95 % band
+    expect(paths.rows).toBe(56);
+    expect(html).toContain('band: 5-95 % over donor level below E_C (eV)');
+    const spec = JSON.parse(readFileSync(join(out, 'report', 'plot-bulk_electronDensity_cm3.vl.json'), 'utf8')) as { facet?: unknown; spec: { layer: { encoding: { y: { scale: { type?: string } } } }[] } };
+    expect(spec.facet).toBeDefined();
+    expect(spec.spec.layer[0]!.encoding.y.scale.type).toBe('log'); // electron density spans decades
+    // a second report replaces our own files without --force, but not a user's file
+    await writeStudyReportFromResults({ outDir: out, study: s });
+    writeFileSync(join(out, 'report', 'notes.txt'), 'mine');
+    await expect(writeStudyReportFromResults({ outDir: out, study: s })).rejects.toThrow(/did not write \(notes\.txt\)/);
+  });
+});

@@ -16,7 +16,8 @@ import type { TopLevelSpec } from 'vega-lite';
 import { InputError } from '../errors.js';
 import { StudyAggregator, fieldName, inputTitle, outputTitle, spansDecades, splitCsvLine, type AggregatedPoint, type AxisGroups } from '../study/aggregate.js';
 import { axisValues } from '../study/sweep.js';
-import { studyColumns, type Study } from '../study/studyFile.js';
+import { fieldSpec, studyColumns, type Study } from '../study/studyFile.js';
+import { defaultUnitOf } from '../inputs/units.js';
 import { BASE_CONFIG, axisFormatFor, decadeTicks } from './figures.js';
 import { escapeHtml } from './escape.js';
 import { renderSvg, svgForInline } from './render.js';
@@ -183,9 +184,12 @@ function table(headers: readonly string[], rows: readonly (readonly string[])[])
   return `<table>\n<thead><tr>${head}</tr></thead>\n<tbody>\n${body}\n</tbody>\n</table>`;
 }
 
-function baseValue(v: unknown): string {
+function baseValue(v: unknown, field?: string): string {
   if (Array.isArray(v)) return v.map(String).join(', ');
   if (v !== null && typeof v === 'object') return '(in-memory)';
+  // a bare number is in the field's default unit
+  const spec = field === undefined ? undefined : fieldSpec(field);
+  if (typeof v === 'number' && spec?.kind === 'quantity' && spec.quantity !== 'dimensionless') return `${v} ${defaultUnitOf(spec.quantity)}`;
   return String(v);
 }
 
@@ -205,7 +209,7 @@ export function systemLine(study: Study): string {
   const support =
     swept('support') ??
     supportName ??
-    (b['electronAffinity'] !== undefined ? `custom support (electron affinity ${baseValue(b['electronAffinity'])}, band gap ${baseValue(b['bandGap'] ?? '?')})` : 'support not given');
+    (b['electronAffinity'] !== undefined ? `custom support (electron affinity ${baseValue(b['electronAffinity'], 'electronAffinity')}, band gap ${baseValue(b['bandGap'] ?? '?', 'bandGap')})` : 'support not given');
   return `${metal} on ${support}`;
 }
 
@@ -238,7 +242,7 @@ th{background:#f4f4f4}.lead{font-size:1.1em}.muted{color:#666}figure{margin:1.5e
 export function studyReportHtml(study: Study, agg: StudyAggregator, figures: readonly { name: string; title: string; svg: string }[], run: StudyReportOptions['run']): string {
   const base = Object.entries(study.base as Record<string, unknown>).filter(([k]) => k !== 'materials');
   const swept = new Set(study.sweep.axes.map((a) => a.field));
-  const baseRows = base.filter(([k]) => !swept.has(k)).map(([k, v]) => [fieldName(k), k, baseValue(v)]);
+  const baseRows = base.filter(([k]) => !swept.has(k)).map(([k, v]) => [fieldName(k), k, baseValue(v, k)]);
   const m = (study.base as Record<string, unknown>)['materials'];
   if (m !== undefined) baseRows.push(['materials library', 'materials', baseValue(m)]);
   const overview = agg.overview().map((o) => [o.title, o.output, String(o.numeric), fmtNumber(o.min), fmtNumber(o.median), fmtNumber(o.max)]);
