@@ -43,7 +43,7 @@ export function registerStudyCommand(program: Command): void {
     .option('--force', 'replace the results of an earlier run in the folder')
     .option('--resume', 'continue the run in --out from the complete rows on disk')
     .option('--shard <K/N>', 'compute only points i with i % N == K-1 (merge with `study merge`)')
-    .option('--point-timeout <S>', 'watchdog: seconds per point before a silent worker is replaced', '300')
+    .option('--point-timeout <S>', 'watchdog: seconds without a sign of life before a worker is replaced', '300')
     .addHelpText('after', EXAMPLE)
     .action(async (file: string, dirs: string[], opts: Record<string, unknown>) => {
       const outDir = String(opts['out']);

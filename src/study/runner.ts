@@ -19,8 +19,9 @@
 // Workers (jobs > 1): `jobs` worker threads are started once per run and fed batches of points.
 // While they load their modules the main thread evaluates points itself (warm start), so a small
 // study never waits for worker start-up; once a worker is ready the main thread only dispatches and
-// writes. A watchdog replaces a worker that has not answered a batch within pointTimeout_s per point:
-// the batch's points become error rows and a fresh worker takes the next batch. (The main thread's
+// writes. A watchdog replaces a worker that has shown no sign of life for pointTimeout_s (workers
+// send one at most once a second while a batch runs, and the rows at its end): the points of its
+// batch become error rows and a fresh worker takes the next batch. (The main thread's
 // warm-start points are not watched: a point that never returns there would hang the run, as with
 // jobs = 1.) Test hook: BANDBEND_TEST_WORKER_HANG=<index,...> makes a worker thread (never the main
 // thread) hang on those point indices; see worker.ts.
@@ -100,7 +101,7 @@ export interface RunStudyOptions {
   signal?: AbortSignal;
   /** points per worker message (default: total / (4 jobs), between 1 and 64) */
   batchSize?: number;
-  /** watchdog: seconds per point before a silent worker is replaced (default 300) */
+  /** watchdog: seconds without a sign of life before a worker is replaced (default 300) */
   pointTimeout_s?: number;
   /** main thread evaluates points while the workers start (default true) */
   warmStart?: boolean;
@@ -556,7 +557,8 @@ function runInWorkers(ctx: RunContext, pool: PoolOptions): Promise<{ interrupted
         if (stopped) return;
         const now = performance.now();
         for (const [w, job] of [...inFlight]) {
-          const budget = pool.pointTimeout_ms * job.batch.length;
+          // since = dispatch or the last sign of life (sent at most once a second): one point's budget
+          const budget = pool.pointTimeout_ms + (job.batch.length > 1 ? 1000 : 0);
           if (now - job.since <= budget) continue;
           const lost = drop(w);
           void w.terminate();
@@ -580,6 +582,9 @@ function runInWorkers(ctx: RunContext, pool: PoolOptions): Promise<{ interrupted
           anyReady = true;
           idle.push(w);
           pump();
+        } else if (msg.type === 'alive') {
+          const job = inFlight.get(w);
+          if (job !== undefined) job.since = performance.now();
         } else if (msg.type === 'rows') {
           onRows(w, msg.rows);
         } else if (msg.type === 'init-error') {

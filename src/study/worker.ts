@@ -6,6 +6,7 @@
 //   workerData: WorkerSetup (base options without materials, materials file list or library entries, outputs)
 //   worker -> main  { type: 'ready' } | { type: 'init-error', message }
 //   main -> worker  { type: 'batch', id, points: [{ index, overrides }] }
+//   worker -> main  { type: 'alive', id } at most once a second while a batch runs (for the watchdog)
 //   worker -> main  { type: 'rows', id, rows: [{ index, values, error }] }
 import { isMainThread, parentPort, workerData, type MessagePort } from 'node:worker_threads';
 import { solveContact } from '../contact.js';
@@ -41,7 +42,11 @@ export interface PointResult {
 }
 
 export type MainToWorker = { type: 'batch'; id: number; points: { index: number; overrides: Partial<ContactOptions> }[] };
-export type WorkerToMain = { type: 'ready' } | { type: 'init-error'; message: string } | { type: 'rows'; id: number; rows: PointResult[] };
+export type WorkerToMain =
+  | { type: 'ready' }
+  | { type: 'init-error'; message: string }
+  | { type: 'alive'; id: number }
+  | { type: 'rows'; id: number; rows: PointResult[] };
 
 export function libraryToEntries(lib: MaterialsLibrary): LibraryEntries {
   return { metals: [...lib.metals], supports: [...lib.supports], references: [...lib.references] };
@@ -106,7 +111,18 @@ export function serveWorker(port: MessagePort, setup: WorkerSetup): void {
   }
   port.on('message', (msg: MainToWorker) => {
     if (msg.type !== 'batch') return;
-    const rows = msg.points.map((p) => (hang.has(p.index) ? hangForever() : evaluatePoint({ ...setup.base, ...p.overrides, materials: lib }, setup.outputs, p.index)));
+    let lastSign = performance.now();
+    const rows = msg.points.map((p) => {
+      if (hang.has(p.index)) hangForever();
+      const row = evaluatePoint({ ...setup.base, ...p.overrides, materials: lib }, setup.outputs, p.index);
+      // a sign of life for the watchdog at most once a second during a long batch
+      const now = performance.now();
+      if (now - lastSign > 1000) {
+        lastSign = now;
+        port.postMessage({ type: 'alive', id: msg.id } satisfies WorkerToMain);
+      }
+      return row;
+    });
     port.postMessage({ type: 'rows', id: msg.id, rows } satisfies WorkerToMain);
   });
   port.postMessage({ type: 'ready' } satisfies WorkerToMain);
