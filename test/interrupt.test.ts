@@ -106,7 +106,7 @@ describe('watchdog', () => {
         sweep: { axes: [{ field: 'donors', log: { from: 1e16, to: 1e19, points: 12 }, unit: 'cm^-3' }] },
         outputs: ['bandBending_eV'],
       }) as Study;
-      const summary = await built.runStudy({ study, outDir: join(dir, 'out'), jobs: 2, batchSize: 1, pointTimeout_s: 0.5, warmStart: false });
+      const summary = await built.runStudy({ study, outDir: join(dir, 'out'), jobs: 2, batchSize: 1, pointTimeout_s: 0.5, warmStart: false, minPointsForWorkers: 0 });
       expect(summary).toMatchObject({ points: 12, failed: 1, interrupted: false, watchdogRestarts: 1 });
       const rows = lines(join(dir, 'out', 'results.jsonl')).map((l) => JSON.parse(l) as { index: number; error: string | null; bandBending_eV: number | null });
       expect(rows.map((r) => r.index)).toEqual([...Array(12).keys()]);

@@ -52,7 +52,7 @@ describe('shards', () => {
     for (const k of [1, 2, 3, 4]) {
       const dir = join(work, `shard-${k}`);
       dirs.push(dir);
-      const s = await built.runStudy({ study: study(), outDir: dir, jobs: k % 2 === 0 ? 2 : 1, shard: { index: k, count: 4 } });
+      const s = await built.runStudy({ study: study(), outDir: dir, jobs: k % 2 === 0 ? 2 : 1, minPointsForWorkers: 0, shard: { index: k, count: 4 } });
       // 35 points over 4 shards: 9, 9, 9, 8
       expect(s.total).toBe(k <= 3 ? 9 : 8);
       expect(s.studyTotal).toBe(35);

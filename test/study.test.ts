@@ -323,7 +323,7 @@ function withMaterials(s: Study, materials: unknown): Study {
 describe('runStudy', () => {
   it('gives identical rows with jobs 1 (in-process) and jobs 2 (worker threads)', async () => {
     const one = await built.runStudy({ study: smallStudy(emptyLibrary()), outDir: join(work, 'jobs1'), jobs: 1 });
-    const two = await built.runStudy({ study: smallStudy([]), outDir: join(work, 'jobs2'), jobs: 2, batchSize: 3 });
+    const two = await built.runStudy({ study: smallStudy([]), outDir: join(work, 'jobs2'), jobs: 2, batchSize: 3, minPointsForWorkers: 0 });
     expect(one).toMatchObject({ points: 20, total: 20, failed: 0, interrupted: false });
     expect(two).toMatchObject({ points: 20, total: 20, failed: 0, interrupted: false, jobs: 2 });
     const a = readCsv(one.csvPath!);
@@ -346,7 +346,7 @@ describe('runStudy', () => {
     // rows are written in index order whatever the number of jobs: the files are identical
     expect(readFileSync(two.csvPath!, 'utf8')).toBe(readFileSync(one.csvPath!, 'utf8'));
     // an in-memory library reaches the workers as plain entries
-    const three = await built.runStudy({ study: smallStudy(emptyLibrary()), outDir: join(work, 'jobs2-library'), jobs: 2 });
+    const three = await built.runStudy({ study: smallStudy(emptyLibrary()), outDir: join(work, 'jobs2-library'), jobs: 2, minPointsForWorkers: 0 });
     expect(readFileSync(three.csvPath!, 'utf8')).toBe(readFileSync(one.csvPath!, 'utf8'));
     expect(a.rows.map((r) => Number(r[0]))).toEqual([...Array(20).keys()]);
     expect(a.rows[0]!.slice(1, 3)).toEqual(['10000000000000000', '300']);
@@ -375,7 +375,7 @@ describe('runStudy', () => {
         outputs: ['bandBending_eV', 'direction'],
       }) as Study;
       const out = join(work, `failing-${jobs}`);
-      const summary = await built.runStudy({ study: withMaterials(s, materials), outDir: out, jobs, formats: ['csv', 'json'] });
+      const summary = await built.runStudy({ study: withMaterials(s, materials), outDir: out, jobs, formats: ['csv', 'json'], minPointsForWorkers: 0 });
       expect(summary).toMatchObject({ points: 4, failed: 1, interrupted: false });
       const { rows } = readCsv(summary.csvPath!);
       expect(rows.map((r) => r[0])).toEqual(['0', '1', '2', '3']);
@@ -421,7 +421,7 @@ describe('runStudy', () => {
   it('rejects bad jobs and a materials file that does not load, before writing', async () => {
     const s = builtFile.parseStudy({ name: 'j', base: CUSTOM, sweep: { axes: [{ field: 'temperature', values: [300] }] } }) as Study;
     await expect(built.runStudy({ study: withMaterials(s, emptyLibrary()), outDir: join(work, 'jobs0'), jobs: 0 })).rejects.toThrow(/--jobs/);
-    await expect(built.runStudy({ study: withMaterials(s, [join(work, 'nope.yaml')]), outDir: join(work, 'nomat'), jobs: 2 })).rejects.toThrow(/nope\.yaml/);
+    await expect(built.runStudy({ study: withMaterials(s, [join(work, 'nope.yaml')]), outDir: join(work, 'nomat'), jobs: 2, minPointsForWorkers: 0 })).rejects.toThrow(/nope\.yaml/);
     expect(existsSync(join(work, 'nomat', 'results.csv'))).toBe(false);
   });
 
@@ -448,6 +448,7 @@ describe('runStudy', () => {
         outDir: join(work, `interrupt-${jobs}`),
         jobs,
         batchSize: 4,
+        minPointsForWorkers: 0,
         signal: controller.signal,
         onProgress: (done) => {
           if (done >= 6) controller.abort();

@@ -16,7 +16,8 @@
 // SIGKILL, is cut off). A failed point is a row with empty outputs and the message in `error`;
 // resume keeps such rows (they are results).
 //
-// Workers (jobs > 1): `jobs` worker threads are started once per run and fed batches of points.
+// Workers (jobs > 1): `jobs` worker threads are started once per run and fed batches of points
+// (fewer than MIN_POINTS_FOR_WORKERS points to compute: none, this thread is faster).
 // While they load their modules the main thread evaluates points itself (warm start), so a small
 // study never waits for worker start-up; once a worker is ready the main thread only dispatches and
 // writes. A watchdog replaces a worker that has shown no sign of life for pointTimeout_s (workers
@@ -74,6 +75,11 @@ export const MAX_BATCH = 64;
 export const MAX_JOBS = 256;
 /** Default watchdog budget per point, seconds (a normal point takes milliseconds). */
 export const DEFAULT_POINT_TIMEOUT_S = 300;
+/**
+ * Below this many points to compute, jobs > 1 still runs in this thread: starting a worker (loading
+ * its modules) costs about as much as a few hundred points.
+ */
+export const MIN_POINTS_FOR_WORKERS = 200;
 
 /** The CLI's default --jobs: the cores this process may use. */
 export function defaultJobs(): number {
@@ -105,6 +111,8 @@ export interface RunStudyOptions {
   pointTimeout_s?: number;
   /** main thread evaluates points while the workers start (default true) */
   warmStart?: boolean;
+  /** fewer points than this left to compute: no workers, this thread does them (default 200) */
+  minPointsForWorkers?: number;
 }
 
 export interface ResumeInfo {
@@ -701,7 +709,7 @@ export async function runStudy(options: RunStudyOptions): Promise<StudySummary> 
     const workers = Math.max(1, Math.min(jobs, Math.ceil(remaining / batchSize)));
     let interrupted: boolean;
     let watchdogRestarts = 0;
-    if (jobs === 1 || remaining === 0) {
+    if (jobs === 1 || remaining === 0 || remaining < (options.minPointsForWorkers ?? MIN_POINTS_FOR_WORKERS)) {
       interrupted = remaining === 0 ? false : await runInProcess(ctx);
     } else {
       const r = await runInWorkers(ctx, {
