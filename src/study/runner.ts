@@ -435,9 +435,9 @@ async function runInProcess(ctx: RunContext): Promise<boolean> {
 // ---------------------------------------------------------------------------------------------
 // on worker threads
 
-function workerMaterials(materials: ContactOptions['materials']): WorkerMaterials {
-  if (materials === undefined) return { files: [] };
-  return Array.isArray(materials) ? { files: [...materials] } : { entries: libraryToEntries(materials) };
+/** The library already loaded and checked here, as plain entries: workers need not read and validate the files again. */
+function workerMaterials(library: MaterialsLibrary): WorkerMaterials {
+  return { entries: libraryToEntries(library) };
 }
 
 interface PoolOptions {
@@ -451,8 +451,8 @@ interface PoolOptions {
 /** Returns interrupted and the number of watchdog restarts. */
 function runInWorkers(ctx: RunContext, pool: PoolOptions): Promise<{ interrupted: boolean; watchdogRestarts: number }> {
   const { study, writer, signal } = ctx;
-  const { materials, ...base } = study.base;
-  const setup: WorkerSetup = { kind: WORKER_KIND, base, materials: workerMaterials(materials), outputs: [...study.outputs] };
+  const { materials: _files, ...base } = study.base;
+  const setup: WorkerSetup = { kind: WORKER_KIND, base, materials: workerMaterials(ctx.library), outputs: [...study.outputs] };
   // rows may finish out of order; dispatch at most this far ahead of the next row to write
   const window = Math.max(1024, pool.batchSize * pool.jobs * 16);
   const maxRestarts = pool.jobs * 2;
