@@ -323,7 +323,7 @@ function withMaterials(s: Study, materials: unknown): Study {
 describe('runStudy', () => {
   it('gives identical rows with jobs 1 (in-process) and jobs 2 (worker threads)', async () => {
     const one = await built.runStudy({ study: smallStudy(emptyLibrary()), outDir: join(work, 'jobs1'), jobs: 1 });
-    const two = await built.runStudy({ study: smallStudy([]), outDir: join(work, 'jobs2'), jobs: 2, batchSize: 3 });
+    const two = await built.runStudy({ study: smallStudy([]), outDir: join(work, 'jobs2'), jobs: 2, batchSize: 3, minPointsForWorkers: 0 });
     expect(one).toMatchObject({ points: 20, total: 20, failed: 0, interrupted: false });
     expect(two).toMatchObject({ points: 20, total: 20, failed: 0, interrupted: false, jobs: 2 });
     const a = readCsv(one.csvPath!);
@@ -346,7 +346,7 @@ describe('runStudy', () => {
     // rows are written in index order whatever the number of jobs: the files are identical
     expect(readFileSync(two.csvPath!, 'utf8')).toBe(readFileSync(one.csvPath!, 'utf8'));
     // an in-memory library reaches the workers as plain entries
-    const three = await built.runStudy({ study: smallStudy(emptyLibrary()), outDir: join(work, 'jobs2-library'), jobs: 2 });
+    const three = await built.runStudy({ study: smallStudy(emptyLibrary()), outDir: join(work, 'jobs2-library'), jobs: 2, minPointsForWorkers: 0 });
     expect(readFileSync(three.csvPath!, 'utf8')).toBe(readFileSync(one.csvPath!, 'utf8'));
     expect(a.rows.map((r) => Number(r[0]))).toEqual([...Array(20).keys()]);
     expect(a.rows[0]!.slice(1, 3)).toEqual(['10000000000000000', '300']);
@@ -375,7 +375,7 @@ describe('runStudy', () => {
         outputs: ['bandBending_eV', 'direction'],
       }) as Study;
       const out = join(work, `failing-${jobs}`);
-      const summary = await built.runStudy({ study: withMaterials(s, materials), outDir: out, jobs, formats: ['csv', 'json'] });
+      const summary = await built.runStudy({ study: withMaterials(s, materials), outDir: out, jobs, formats: ['csv', 'json'], minPointsForWorkers: 0 });
       expect(summary).toMatchObject({ points: 4, failed: 1, interrupted: false });
       const { rows } = readCsv(summary.csvPath!);
       expect(rows.map((r) => r[0])).toEqual(['0', '1', '2', '3']);
@@ -421,7 +421,7 @@ describe('runStudy', () => {
   it('rejects bad jobs and a materials file that does not load, before writing', async () => {
     const s = builtFile.parseStudy({ name: 'j', base: CUSTOM, sweep: { axes: [{ field: 'temperature', values: [300] }] } }) as Study;
     await expect(built.runStudy({ study: withMaterials(s, emptyLibrary()), outDir: join(work, 'jobs0'), jobs: 0 })).rejects.toThrow(/--jobs/);
-    await expect(built.runStudy({ study: withMaterials(s, [join(work, 'nope.yaml')]), outDir: join(work, 'nomat'), jobs: 2 })).rejects.toThrow(/nope\.yaml/);
+    await expect(built.runStudy({ study: withMaterials(s, [join(work, 'nope.yaml')]), outDir: join(work, 'nomat'), jobs: 2, minPointsForWorkers: 0 })).rejects.toThrow(/nope\.yaml/);
     expect(existsSync(join(work, 'nomat', 'results.csv'))).toBe(false);
   });
 
@@ -448,6 +448,7 @@ describe('runStudy', () => {
         outDir: join(work, `interrupt-${jobs}`),
         jobs,
         batchSize: 4,
+        minPointsForWorkers: 0,
         signal: controller.signal,
         onProgress: (done) => {
           if (done >= 6) controller.abort();
@@ -500,5 +501,88 @@ describe('progress', () => {
     expect(written.at(-1)).toBe('\n');
     expect(written.at(-2)).toContain('100/100');
     expect(formatProgress('x', 25, 100, 10, 8)).toBe('x [##......]  25% 25/100 10s eta 30s');
+  });
+});
+
+describe('study report (streaming aggregation)', () => {
+  it('reservoir quantiles are exact below capacity and bounded above it', async () => {
+    const { Reservoir } = await import('../src/study/aggregate.js');
+    // order statistics of 1..101: median 51, 5th percentile 6, 95th 96 (linear interpolation, Hyndman & Fan type 7)
+    const r = new Reservoir(256);
+    for (let v = 101; v >= 1; v--) r.add(v);
+    expect([r.quantile(0.5), r.quantile(0.05), r.quantile(0.95), r.min, r.max, r.n]).toEqual([51, 6, 96, 1, 101, 101]);
+    // 1e5 values from a uniform grid on [0, 1): sample median within 0.1 of 0.5 with 256 kept values
+    const big = new Reservoir(256, 7);
+    for (let i = 0; i < 100_000; i++) big.add(((i * 7919) % 100_000) / 100_000);
+    expect(Math.abs(big.quantile(0.5) - 0.5)).toBeLessThan(0.1);
+    expect(big.n).toBe(100_000);
+  });
+
+  it('plans x, colour and panels; names and units instead of raw field names', async () => {
+    const { planAggregation, outputTitle, inputTitle } = await import('../src/study/aggregate.js');
+    const s = study({
+      base: { metal: 'Pt', support: 'CeO2' },
+      sweep: {
+        axes: [
+          { field: 'reductionTemperature', values: [573, 673, 773], unit: 'K' },
+          { field: 'hydrogenToWater', log: { from: 1e-2, to: 1e4, points: 13 } },
+          { field: 'particleDiameter', values: [1, 2, 5, 10], unit: 'nm' },
+          { field: 'donorLevel', values: [0.1, 0.2] },
+        ],
+      },
+      outputs: ['pretreatment.vacancyDensity_cm3', 'bandBending_eV'],
+    });
+    const plan = planAggregation(s);
+    expect(plan.x.axis.field).toBe('hydrogenToWater');
+    expect(plan.x.log).toBe(true);
+    expect(plan.color?.axis.field).toBe('reductionTemperature');
+    expect(plan.facet?.axis.field).toBe('particleDiameter');
+    expect(plan.rest.map((a) => a.field)).toEqual(['donorLevel']);
+    expect(outputTitle('pretreatment.vacancyDensity_cm3')).toBe('oxygen-vacancy density (cm^-3)');
+    expect(outputTitle('bandBending_eV')).toBe('band bending (eV)');
+    expect(outputTitle('exchange.equilibrationTimeLog10_s')).toBe('log10 equilibration time (log10 s)');
+    expect(inputTitle({ field: 'donors', unit: 'cm^-3' })).toBe('donor density (cm^-3)');
+    expect(inputTitle({ field: 'particleDiameter' })).toBe('particle diameter (nm)');
+  });
+
+  it('writes a bounded report with the system and base conditions at the top', async () => {
+    const s = withMaterials(
+      builtFile.parseStudy({
+        name: 'report-check',
+        base: { ...CUSTOM, geometry: 'planar' },
+        sweep: {
+          axes: [
+            { field: 'donors', log: { from: 1e16, to: 1e19, points: 7 }, unit: 'cm^-3' },
+            { field: 'temperature', values: [300, 500], unit: 'K' },
+            { field: 'permittivity', values: [5, 20] },
+            { field: 'donorLevel', values: [0.05, 0.2] },
+          ],
+        },
+        outputs: ['bandBending_eV', 'bulk.electronDensity_cm3', 'direction'],
+      }) as Study,
+      emptyLibrary(),
+    );
+    const out = join(work, 'report-check');
+    const summary = await built.runStudy({ study: s, outDir: out, jobs: 1 });
+    const { writeStudyReportFromResults } = await import('../dist/output/studyReport.js');
+    const paths = await writeStudyReportFromResults({ outDir: out, study: s, run: { points: summary.points, total: summary.total, failed: summary.failed } });
+    const html = readFileSync(paths.htmlPath, 'utf8');
+    const top = html.slice(0, html.indexOf('<h2>Sweep'));
+    expect(top).toContain('custom metal (work function 5.3 eV) on custom support');
+    expect(top).toContain('<td>electron effective mass (m_e)</td><td>electronMass</td><td>0.3</td>');
+    expect(top).toContain('custom support (electron affinity 4.2 eV, band gap 3.2 eV)');
+    expect(top).toContain('planar');
+    expect(html).not.toContain('>bulk.electronDensity_cm3 against');
+    expect(html).toContain('bulk electron density (cm^-3) against donor density (cm^-3)');
+    // 7 x 2 x 2 x 2 = 56 rows; donorLevel aggregated: median line and 5-95 % band
+    expect(paths.rows).toBe(56);
+    expect(html).toContain('band: 5-95 % over donor level below E_C (eV)');
+    const spec = JSON.parse(readFileSync(join(out, 'report', 'plot-bulk_electronDensity_cm3.vl.json'), 'utf8')) as { facet?: unknown; spec: { layer: { encoding: { y: { scale: { type?: string } } } }[] } };
+    expect(spec.facet).toBeDefined();
+    expect(spec.spec.layer[0]!.encoding.y.scale.type).toBe('log'); // electron density spans decades
+    // a second report replaces our own files without --force, but not a user's file
+    await writeStudyReportFromResults({ outDir: out, study: s });
+    writeFileSync(join(out, 'report', 'notes.txt'), 'mine');
+    await expect(writeStudyReportFromResults({ outDir: out, study: s })).rejects.toThrow(/did not write \(notes\.txt\)/);
   });
 });

@@ -24,7 +24,9 @@ type Fit = ReturnType<typeof import('../derived/mottSchottky.js').fitMottSchottk
 type Rows = ReturnType<typeof import('../derived/mottSchottky.js').parseCapacitanceCsv>['rows'];
 
 async function writePlot(path: string, rows: Rows, fit: Fit, electrodeArea_m2: number | undefined, force: boolean): Promise<void> {
-  if (existsSync(path) && !force) throw new InputError('--plot', `${path} exists; use --force to overwrite`);
+  for (const target of [path, `${path}.vl.json`]) {
+    if (existsSync(target) && !force) throw new InputError('--plot', `${target} exists; use --force to overwrite`);
+  }
   const [{ mottSchottkyFitSpec }, { renderSvg }] = await Promise.all([import('../output/figures.js'), import('../output/render.js')]);
   const points = rows.map((row) => {
     const perArea = row.capacitance_F_per_m2 ?? (row.capacitance_F ?? NaN) / (electrodeArea_m2 ?? NaN);

@@ -1,6 +1,5 @@
-// `bandbend study FILE`: parameter sweeps from a study file, rows written as they complete, plus line plots.
+// `bandbend study FILE`: parameter sweeps from a study file, rows written as they complete, plus plots (src/study/command.ts).
 import type { Command } from 'commander';
-import { InputError } from '../errors.js';
 
 const EXAMPLE = `
 Study file (YAML or JSON):
@@ -15,70 +14,31 @@ Study file (YAML or JSON):
 
 Examples:
   bandbend study examples/study-support-reduction.yaml --out out/reduction
-  bandbend study sweep.json --out out/sweep --jobs 2 --format csv`;
+  bandbend study sweep.json --out out/sweep --jobs 2 --format csv
+  bandbend study sweep.json --out out/sweep --resume          # continue after a crash or Ctrl-C
+  bandbend study sweep.json --out out/shard-3 --shard 3/8     # points i with i % 8 == 2
+  bandbend study merge out/shard-* --out out/all              # join shards 1/8 .. 8/8
 
-function formatsOf(text: string): ('csv' | 'json')[] {
-  const formats = text
-    .split(',')
-    .map((f) => f.trim())
-    .filter((f) => f !== '');
-  for (const f of formats) if (f !== 'csv' && f !== 'json') throw new InputError('--format', `unknown format "${f}"`, 'csv, json');
-  return formats as ('csv' | 'json')[];
-}
-
-async function runStudyCommand(file: string, opts: Record<string, unknown>): Promise<void> {
-  const [{ loadStudyFile }, { runStudy }, { createProgress }, { writeStudyPlots }] = await Promise.all([
-    import('../study/studyFile.js'),
-    import('../study/runner.js'),
-    import('../study/progress.js'),
-    import('../output/studyPlots.js'),
-  ]);
-  const study = loadStudyFile(file);
-  const formats = formatsOf(String(opts['format']));
-  const outDir = String(opts['out']);
-  const controller = new AbortController();
-  const onSignal = (): void => controller.abort();
-  process.once('SIGINT', onSignal);
-  process.once('SIGTERM', onSignal);
-  const bar: { progress: ReturnType<typeof createProgress> | null } = { progress: null };
-  try {
-    const summary = await runStudy({
-      study,
-      outDir,
-      jobs: Number(opts['jobs']),
-      force: opts['force'] === true,
-      formats,
-      signal: controller.signal,
-      onProgress: (_done, all, added) => {
-        bar.progress ??= createProgress(all, study.name);
-        bar.progress.tick(added);
-      },
-    });
-    bar.progress?.done();
-    process.stderr.write(
-      `${summary.points} of ${summary.total} points written (${summary.failed} failed) in ${summary.elapsed_s.toFixed(2)} s` +
-        `${summary.interrupted ? ' - interrupted, rows on disk are complete' : ''}\n`,
-    );
-    if (opts['plots'] !== false && !summary.interrupted && summary.jsonlPath !== null) {
-      const report = await writeStudyPlots(study, outDir, summary.jsonlPath);
-      if (report) process.stderr.write(`report written: ${report}\n`);
-    }
-    if (summary.interrupted) process.exitCode = 130;
-  } finally {
-    process.removeListener('SIGINT', onSignal);
-    process.removeListener('SIGTERM', onSignal);
-  }
-}
+--resume keeps the complete rows on disk (a partial last line is cut off) and computes the rest;
+a lock file (<out>/.bandbend-study.lock) makes a second run on the same folder refuse.
+A full disk or file-size limit stops the study with exit 1; every line on disk stays complete.`;
 
 export function registerStudyCommand(program: Command): void {
   program
-    .command('study <FILE>')
-    .description('parameter study from a study file: rows written as they complete (CSV/JSONL) and line plots')
+    .command('study <FILE> [DIRS...]')
+    .description('parameter study from a study file: rows written as they complete (CSV/JSONL) and plots; `study merge DIR... --out DIR` joins shards')
     .requiredOption('--out <DIR>', 'output folder')
-    .option('--jobs <N>', 'worker threads', '1')
-    .option('--format <LIST>', 'result formats: csv, json or csv,json', 'csv,json')
-    .option('--no-plots', 'skip the line plots and HTML report')
+    .option('--jobs <N>', 'worker threads (default: the available cores)')
+    .option('--format <LIST>', 'result formats: csv, json or csv,json (default csv,json; on --resume: as before)')
+    .option('--no-plots', 'skip the plots and HTML report')
     .option('--force', 'replace the results of an earlier run in the folder')
+    .option('--resume', 'continue the run in --out from the complete rows on disk')
+    .option('--shard <K/N>', 'compute only points i with i % N == K-1 (merge with `study merge`)')
+    .option('--point-timeout <S>', 'watchdog: seconds without a sign of life before a worker is replaced', '300')
     .addHelpText('after', EXAMPLE)
-    .action(runStudyCommand);
+    .action(async (file: string, dirs: string[], opts: Record<string, unknown>) => {
+      // loaded on use: `contact --json` must not pay for the study runner and its report
+      const { studyCommand } = await import('../study/command.js');
+      await studyCommand(file, dirs, opts);
+    });
 }

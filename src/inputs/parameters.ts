@@ -163,6 +163,11 @@ export const DISPLAY_UNITS: Readonly<Record<QuantityKind, { unit: string; si: st
   temperature: { unit: 'K', si: 'K', toSi: 1, fromSi: 1 },
   length: { unit: 'nm', si: 'm', toSi: 1e-9, fromSi: 1e9 },
   pressure: { unit: 'bar', si: 'Pa', toSi: 1e5, fromSi: 1e-5 },
+  stateDensityPerArea: { unit: 'eV^-1 cm^-2', si: 'eV^-1 m^-2', toSi: 1e4, fromSi: 1e-4 },
+  area: { unit: 'cm^2', si: 'm^2', toSi: 1e-4, fromSi: 1e4 },
+  time: { unit: 's', si: 's', toSi: 1, fromSi: 1 },
+  diffusionCoefficient: { unit: 'cm^2/s', si: 'm^2/s', toSi: 1e-4, fromSi: 1e4 },
+  electricField: { unit: 'V/m', si: 'V/m', toSi: 1, fromSi: 1 },
   dimensionless: { unit: '', si: '', toSi: 1, fromSi: 1 },
 };
 
