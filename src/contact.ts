@@ -5,9 +5,15 @@ import { InputError } from './errors.js';
 import { propagateUncertainty } from './derived/uncertainty.js';
 import { resolveContact, type ContactOptions, type ResolvedContact } from './inputs/contactInput.js';
 import { makeChargeModel, solveBulkNeutrality, type ChargeModel } from './bulk/equilibrium.js';
-import { barrierHeight } from './barrier/barrier.js';
+import { barrierHeight, empiricalPinningFactor, type BarrierResult } from './barrier/barrier.js';
+import {
+  interfaceStateDensityFromSlope,
+  solveInterfaceAlignment,
+  type InterfaceAlignment,
+  type InterfaceStateParameters,
+} from './interface/interfaceStates.js';
 import { PLANAR, hemisphere, particleArray, type CrossSection } from './electrostatics/geometry.js';
-import { solvePoisson, REFINE_ABOVE } from './electrostatics/poisson.js';
+import { solvePoisson, REFINE_ABOVE, type PoissonSolution } from './electrostatics/poisson.js';
 import { particleAtoms, chargingSummary, effectivePermittivity, meanSpacing_m } from './derived/particle.js';
 import { thermionicExchangeCurrent_A_per_m2, equilibrationTime_s, SLOW_EXCHANGE_THRESHOLD_S } from './derived/exchange.js';
 import {
@@ -27,6 +33,16 @@ export type { ContactOptions, ResolvedContact } from './inputs/contactInput.js';
 
 /** Largest band bending accepted, eV: beyond this the contact is outside the model (and outside any oxide gap). */
 export const MAX_BAND_BENDING_EV = 12;
+
+function checkBandBending(bandBending_eV: number): void {
+  if (!Number.isFinite(bandBending_eV) || Math.abs(bandBending_eV) > MAX_BAND_BENDING_EV) {
+    throw new InputError(
+      'band bending',
+      `the inputs give ${bandBending_eV.toFixed(2)} eV between interface and bulk`,
+      `|band bending| <= ${MAX_BAND_BENDING_EV} eV: check work function, electron affinity and barrier`,
+    );
+  }
+}
 
 /** Solve one contact from user-level options (units parsed, materials looked up). */
 export function solveContact(options: ContactOptions): ContactResult {
@@ -58,7 +74,34 @@ function chargeModelOf(r: ResolvedContact): ChargeModel {
     donors: { density_m3: s.donors_m3, kind: s.donorKind, level1_eV: s.donorLevel1_eV, level2_eV: s.donorLevel2_eV },
     acceptors: { density_m3: s.acceptors_m3, level_eV: s.acceptorLevel_eV },
     statistics: r.statistics,
+    // localised (small-polaron) states hold the donor electrons in reducible oxides (Ce 4f, Ti 3d)
+    ...(s.localisedSites_m3 !== undefined && s.localisedSites_m3 > 0 && s.localisedLevel_eV !== undefined
+      ? { localised: { siteDensity_m3: s.localisedSites_m3, level_eV: s.localisedLevel_eV } }
+      : {}),
+    // donors delocalise above the Mott density and their level is lowered below it (Edwards & Sienko 1978)
+    mott: { relativePermittivity: s.permittivity },
   });
+}
+
+/** Interface-state parameters: D_it given, or from the slope S (given or library, else empirical) and the layer. */
+export function interfaceParametersOf(r: ResolvedContact): InterfaceStateParameters & { pinningFactorOrigin: 'given' | 'empirical' | 'states' } {
+  const s = r.support;
+  const layerThickness_m = s.interfaceLayerThickness_m ?? 0.5e-9;
+  const layerPermittivity = s.interfaceLayerPermittivity ?? 1;
+  const neutralLevelAboveValence_eV = s.neutralLevelAboveValence_eV!;
+  if (s.interfaceStateDensity_per_eV_m2 !== undefined) {
+    return { stateDensity_per_eV_m2: s.interfaceStateDensity_per_eV_m2, neutralLevelAboveValence_eV, layerThickness_m, layerPermittivity, pinningFactorOrigin: 'states' };
+  }
+  const slope = s.pinningFactor ?? empiricalPinningFactor(s.opticalPermittivity);
+  // D_it = (1/S - 1) eps_i eps0 / (q^2 delta) (Cowley & Sze 1965), capped at the solver's largest density
+  const density = layerThickness_m > 0 ? Math.min(1e21, interfaceStateDensityFromSlope(Math.max(slope, 1e-4), layerThickness_m, layerPermittivity)) : 0;
+  return {
+    stateDensity_per_eV_m2: density,
+    neutralLevelAboveValence_eV,
+    layerThickness_m,
+    layerPermittivity,
+    pinningFactorOrigin: s.pinningFactor !== undefined ? 'given' : 'empirical',
+  };
 }
 
 /** Solve one contact from resolved SI inputs (used by studies and uncertainty sampling). */
@@ -67,42 +110,72 @@ export function solveResolved(r: ResolvedContact): ContactResult {
   const model = chargeModelOf(r);
   const bulk = solveBulkNeutrality(model);
   const nType = bulk.electronDensity_m3 >= bulk.holeDensity_m3;
-  const barrier = barrierHeight({
-    model: r.barrierModel,
-    metalWorkFunction_eV: r.metal.workFunction_eV,
-    electronAffinity_eV: s.electronAffinity_eV,
-    bandGap_eV: s.bandGap_eV,
-    opticalPermittivity: s.opticalPermittivity,
-    carrier: nType ? 'electron' : 'hole',
-    pinningFactor: s.pinningFactor,
-    neutralLevel_eV: s.neutralLevel_eV,
-    givenBarrier_eV: r.givenBarrier_eV,
-  });
-  // band bending = E_C(0) - E_C(bulk) = (E_C(0) - E_F) - (E_C - E_F)_bulk
-  const bandBending_eV = barrier.electronBarrier_eV - bulk.fermiLevelBelowConduction_eV;
-  if (!Number.isFinite(bandBending_eV) || Math.abs(bandBending_eV) > MAX_BAND_BENDING_EV) {
-    throw new InputError(
-      'band bending',
-      `the inputs give ${bandBending_eV.toFixed(2)} eV between interface and bulk`,
-      `|band bending| <= ${MAX_BAND_BENDING_EV} eV: check work function, electron affinity and barrier`,
-    );
-  }
   const geometry = GEOMETRIES[r.geometry](r);
-  const solution = solvePoisson({
-    model,
-    bulkReducedFermiLevel: bulk.reducedFermiLevel,
-    surfaceBending: bandBending_eV / model.kT_eV,
-    relativePermittivity: s.permittivity,
-    temperature_K: r.temperature_K,
-    geometry,
-    thickness_m: r.supportThickness_m,
-    refinement: r.refinement,
-  });
-  const physics = derivePhysics({ r, model, bulk, barrier, nType, bandBending_eV, geometry, solution });
+  const solveAt = (bandBending_eV: number): PoissonSolution => {
+    checkBandBending(bandBending_eV);
+    return solvePoisson({
+      model,
+      bulkReducedFermiLevel: bulk.reducedFermiLevel,
+      surfaceBending: bandBending_eV / model.kT_eV,
+      relativePermittivity: s.permittivity,
+      temperature_K: r.temperature_K,
+      geometry,
+      thickness_m: r.supportThickness_m,
+      refinement: r.refinement,
+    });
+  };
+  let barrier: BarrierResult;
+  let bandBending_eV: number;
+  let solution: PoissonSolution;
+  let interfaceStates: InterfaceAlignment | null = null;
+  if (r.barrierModel === 'interface-states') {
+    const params = interfaceParametersOf(r);
+    let last: { bandBending_eV: number; solution: PoissonSolution } | null = null;
+    // Bardeen / Cowley–Sze: the barrier, the interface-state charge and the space charge solved together
+    interfaceStates = solveInterfaceAlignment({
+      ...params,
+      metalWorkFunction_eV: r.metal.workFunction_eV,
+      electronAffinity_eV: s.electronAffinity_eV,
+      bandGap_eV: s.bandGap_eV,
+      fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV,
+      temperature_K: r.temperature_K,
+      spaceCharge: (v) => {
+        last = { bandBending_eV: v, solution: solveAt(v) };
+        return last.solution.totalCharge_C / geometry.interfaceArea_m2;
+      },
+      tolerance_eV: 1e-9,
+    });
+    bandBending_eV = interfaceStates.bandBending_eV;
+    const previous = last as { bandBending_eV: number; solution: PoissonSolution } | null;
+    solution = previous !== null && previous.bandBending_eV === bandBending_eV ? previous.solution : solveAt(bandBending_eV);
+    const electronBarrier_eV = interfaceStates.electronBarrier_eV;
+    barrier = {
+      electronBarrier_eV,
+      barrierHeight_eV: nType ? electronBarrier_eV : s.bandGap_eV - electronBarrier_eV,
+      pinningFactor: interfaceStates.pinningFactor,
+      pinningFactorOrigin: params.pinningFactorOrigin === 'given' ? 'given' : 'empirical',
+    };
+  } else {
+    barrier = barrierHeight({
+      model: r.barrierModel,
+      metalWorkFunction_eV: r.metal.workFunction_eV,
+      electronAffinity_eV: s.electronAffinity_eV,
+      bandGap_eV: s.bandGap_eV,
+      opticalPermittivity: s.opticalPermittivity,
+      carrier: nType ? 'electron' : 'hole',
+      pinningFactor: s.pinningFactor,
+      neutralLevel_eV: s.neutralLevel_eV,
+      givenBarrier_eV: r.givenBarrier_eV,
+    });
+    // band bending = E_C(0) - E_C(bulk) = (E_C(0) - E_F) - (E_C - E_F)_bulk
+    bandBending_eV = barrier.electronBarrier_eV - bulk.fermiLevelBelowConduction_eV;
+    solution = solveAt(bandBending_eV);
+  }
+  const physics = derivePhysics({ r, model, bulk, barrier, nType, bandBending_eV, geometry, solution, interfaceStates });
   return toContactResult(physics, evaluateWarnings(warningFacts(physics)));
 }
 
-type SolvedContact = Pick<ContactPhysics, 'r' | 'model' | 'bulk' | 'barrier' | 'nType' | 'bandBending_eV' | 'geometry' | 'solution'>;
+type SolvedContact = Pick<ContactPhysics, 'r' | 'model' | 'bulk' | 'barrier' | 'nType' | 'bandBending_eV' | 'geometry' | 'solution' | 'interfaceStates'>;
 
 /** Every derived quantity of one solved contact, SI. */
 function derivePhysics(c: SolvedContact): ContactPhysics {
@@ -122,7 +195,8 @@ function derivePhysics(c: SolvedContact): ContactPhysics {
     kT_eV: kT,
     spaceCharge_C_per_m2: spaceCharge,
     interfaceField_V_per_m: interfaceField_V_per_m(kT, solution.interfaceSlope_per_m),
-    electronsPerParticle: electronsPerParticle(solution.totalCharge_C, geometry),
+    // the metal's charge balances the space charge and the interface states under it: -(Q_sc + Q_it)
+    electronsPerParticle: electronsPerParticle(solution.totalCharge_C + interfaceStateCharge_C(c), geometry),
     chargeEquivalentWidth_m: chargeEquivalentWidth_m(solution.totalCharge_C, majorityDopantCharge_m3, geometry),
     depletionWidthApprox_m: depletionWidthApprox_m(r.support.permittivity * EPS0_F_PER_M, c.bandBending_eV, kT, majorityDopantCharge_m3, nType),
     direction: flowDirection(c.bandBending_eV, solution.totalCharge_C),
@@ -134,6 +208,11 @@ function derivePhysics(c: SolvedContact): ContactPhysics {
     zonesOverlap: meanSpacing !== null ? depth90_m > meanSpacing / 2 : null,
     exchange: exchangeKinetics(c, spaceCharge),
   };
+}
+
+/** Interface-state charge over the whole interface of the cross-section, C (0 outside the interface-states model). */
+function interfaceStateCharge_C(c: SolvedContact): number {
+  return c.interfaceStates === null ? 0 : c.interfaceStates.interfaceStateCharge_C_per_m2 * c.geometry.interfaceArea_m2;
 }
 
 /** Thermionic exchange with the majority band (none for barriers above 20 eV, where it is zero in any unit). */

@@ -1,3 +1,4 @@
+import type { InterfaceAlignment } from './interface/interfaceStates.js';
 // The only place where the SI physics of one contact becomes the display units of the JSON contract
 // (src/types.ts: nm, cm^-3, A/cm^2; add fields freely, never rename).
 import { Q_ELEMENTARY_C } from './constants.js';
@@ -40,6 +41,8 @@ export interface ContactPhysics {
   meanSpacing_m: number | null;
   zonesOverlap: boolean | null;
   exchange: ExchangeKinetics | null;
+  /** interface-states model: the self-consistent alignment (null for the other barrier models) */
+  interfaceStates: InterfaceAlignment | null;
 }
 
 const NM_PER_M = 1e9;

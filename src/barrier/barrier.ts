@@ -60,6 +60,9 @@ export function barrierHeight(input: BarrierInput): BarrierResult {
       electronBarrier = pinningFactor * (phiM - input.neutralLevel_eV) + (input.neutralLevel_eV - chi);
       break;
     }
+    case 'interface-states':
+      // the barrier depends on the space charge: solved with it in src/interface/interfaceStates.ts
+      throw new RangeError('barrierHeight: the interface-states model is solved by solveInterfaceAlignment, not here');
     case 'given': {
       if (input.givenBarrier_eV === undefined) {
         throw new InputError('--barrier', 'the given barrier model needs --barrier', 'an energy, e.g. "0.8 eV"');

@@ -47,6 +47,15 @@ export interface ResolvedSupport {
   acceptorLevel_eV: number | undefined;
   neutralLevel_eV: number | undefined;
   pinningFactor: number | undefined;
+  /** interface-states model: charge-neutrality level above E_V, eV */
+  neutralLevelAboveValence_eV: number | undefined;
+  /** interface-states model: D_it per eV per m^2 (undefined = from the pinning factor and the layer) */
+  interfaceStateDensity_per_eV_m2: number | undefined;
+  interfaceLayerThickness_m: number | undefined;
+  interfaceLayerPermittivity: number | undefined;
+  /** localised (small-polaron) electron sites per m^3 and their depth below E_C, eV */
+  localisedSites_m3: number | undefined;
+  localisedLevel_eV: number | undefined;
 }
 
 export interface ResolvedMetal {
@@ -131,6 +140,12 @@ const CROSS_RULES: { option: OptionName; refuse: (o: ContactOptions, c: Resoluti
     refuse: (o, c) => c.value('barrierModel') === 'given' && o.barrier === undefined,
     message: 'missing',
     allowed: 'the given barrier model needs --barrier E',
+  },
+  {
+    option: 'barrierModel',
+    refuse: (_o, c) => c.value('barrierModel') === 'interface-states' && c.value('neutralLevelAboveValence') === undefined,
+    message: 'interface-states needs a charge-neutrality level, and the library has none for this support',
+    allowed: 'give --neutral-level-above-valence E, or --barrier-model ideal|pinned|given',
   },
   {
     option: 'particleDensity',
@@ -396,6 +411,12 @@ function assembleResolved(c: Resolution): ResolvedContact {
     acceptorLevel_eV: c.num('acceptorLevel'),
     neutralLevel_eV: c.num('neutralLevel'),
     pinningFactor: c.num('pinningFactor'),
+    neutralLevelAboveValence_eV: c.num('neutralLevelAboveValence'),
+    interfaceStateDensity_per_eV_m2: c.num('interfaceStateDensity'),
+    interfaceLayerThickness_m: c.num('interfaceLayerThickness'),
+    interfaceLayerPermittivity: c.num('interfaceLayerPermittivity'),
+    localisedSites_m3: c.num('localisedSites'),
+    localisedLevel_eV: c.num('localisedLevel'),
   };
   const supportWorkFunction = c.num('supportWorkFunction');
   if (supportWorkFunction !== undefined) support.donors_m3 = donorsForWorkFunction(c, support, supportWorkFunction);

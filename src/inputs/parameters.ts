@@ -69,14 +69,26 @@ export interface ContactOptions {
   acceptorLevel?: QuantityInput;
   /** temperature, K if bare @default 300 K */
   temperature?: QuantityInput;
-  /** barrier model @default ideal */
+  /** barrier model @default interface-states where the library has a charge-neutrality level for the support, else ideal */
   barrierModel?: BarrierModel;
-  /** pinning factor S (pinned model only) @default library value, else empirical from the optical permittivity */
+  /** pinning factor S (pinned and interface-states models) @default library value, else empirical from the optical permittivity */
   pinningFactor?: QuantityInput;
   /** charge-neutrality level below vacuum, eV (pinned model only) @default library value of the support */
   neutralLevel?: QuantityInput;
   /** measured barrier for the majority carrier (given model only) @default none */
   barrier?: QuantityInput;
+  /** charge-neutrality level of the interface states above the valence-band maximum (interface-states model) @default library value of the support */
+  neutralLevelAboveValence?: QuantityInput;
+  /** density of interface states, per eV per cm^2 if bare (interface-states model) @default from the pinning factor S and the interfacial layer, D = (1/S - 1) eps_i eps0 / (q^2 delta) */
+  interfaceStateDensity?: QuantityInput;
+  /** thickness of the interfacial layer, nm if bare (interface-states model) @default library value, else 0.5 nm */
+  interfaceLayerThickness?: QuantityInput;
+  /** relative permittivity of the interfacial layer (interface-states model) @default library value, else 1 */
+  interfaceLayerPermittivity?: QuantityInput;
+  /** density of sites for localised (small-polaron) electrons, cm^-3 if bare @default library value of the support, else none */
+  localisedSites?: QuantityInput;
+  /** depth of the localised-electron level below E_C @default library value of the support */
+  localisedLevel?: QuantityInput;
   /** contact geometry @default planar */
   geometry?: GeometryKind;
   /** particle diameter, nm if bare @default 2 nm */
@@ -178,6 +190,7 @@ const plain = (limits: readonly [number, number]): Shape => ({ kind: 'quantity',
 const DENSITY_M3 = [0, 1e29] as const;
 const LEVEL_EV = [0, 10] as const;
 const MASS_ME = [0.01, 50] as const;
+const INTERFACE_STATES = { test: (c: RowContext) => c.value('barrierModel') === 'interface-states', text: 'with --barrier-model interface-states' };
 const PERMITTIVITY = [1, 1e5] as const;
 const FREE_MASS = { value: 1, note: 'not given: free-electron mass assumed' };
 const typicalIf = (p: boolean) => (r: LibraryRecords): PropertyValue | undefined =>
@@ -306,11 +319,18 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
     label: 'acceptor level (height above E_V)', library: (r, c) => (positive(c, 'acceptors') ? r.support?.acceptor?.level_eV : undefined),
     libraryLabel: (r) => `acceptor level (${r.support!.acceptor!.label})`,
   },
-  barrierModel: { flag: '--barrier-model <MODEL>', help: 'barrier model', defaultText: 'ideal', kind: 'choice', choices: ['ideal', 'pinned', 'given'], fallback: { value: 'ideal' } },
+  barrierModel: {
+    flag: '--barrier-model <MODEL>', help: 'barrier model', defaultText: 'interface-states where the library has a charge-neutrality level for the support, else ideal',
+    kind: 'choice', choices: ['interface-states', 'ideal', 'pinned', 'given'],
+    fallback: { value: (c) => (c.records.support?.chargeNeutralityAboveValence_eV !== undefined ? 'interface-states' : 'ideal') },
+  },
   pinningFactor: {
     flag: '--pinning-factor <S>', help: 'pinning factor S', defaultText: 'library value, else empirical from the optical permittivity',
     ...plain([0, 1]), label: 'pinning factor', library: (r) => r.support?.pinningFactor,
-    when: { test: (c) => c.value('barrierModel') === 'pinned', text: 'with --barrier-model pinned' },
+    when: {
+      test: (c) => c.value('barrierModel') === 'pinned' || (c.value('barrierModel') === 'interface-states' && !c.given('interfaceStateDensity')),
+      text: 'with --barrier-model pinned, or interface-states without --interface-state-density',
+    },
   },
   neutralLevel: {
     flag: '--neutral-level <E>', help: 'charge-neutrality level below vacuum, eV', defaultText: 'library value of the support',
@@ -320,6 +340,37 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
   barrier: {
     flag: '--barrier <E>', help: 'measured barrier for the majority carrier', ...energy([-5, 12]), label: 'barrier (given)',
     when: { test: (c) => c.value('barrierModel') === 'given', text: 'with --barrier-model given' },
+  },
+  neutralLevelAboveValence: {
+    flag: '--neutral-level-above-valence <E>', help: 'charge-neutrality level of the interface states above E_V', defaultText: 'library value of the support',
+    ...energy([0, 12]), label: 'charge-neutrality level (above E_V)', library: (r) => r.support?.chargeNeutralityAboveValence_eV,
+    when: INTERFACE_STATES,
+  },
+  interfaceStateDensity: {
+    flag: '--interface-state-density <D>', help: 'density of interface states (per eV per cm^2 if bare)',
+    defaultText: 'from the pinning factor S and the interfacial layer, D = (1/S - 1) eps_i eps0 / (q^2 delta)',
+    kind: 'quantity', quantity: 'stateDensityPerArea', limits: [0, 1e21], label: 'interface-state density', when: INTERFACE_STATES,
+  },
+  interfaceLayerThickness: {
+    flag: '--interface-layer-thickness <L>', help: 'interfacial layer thickness (nm if bare)', defaultText: 'library value, else 0.5 nm',
+    kind: 'quantity', quantity: 'length', limits: [0, 10e-9], label: 'interfacial layer thickness', library: (r) => r.support?.interfaceLayerThickness_nm,
+    fallback: { value: 0.5e-9, note: 'Cowley & Sze (1965) / Sze & Ng sec. 3.2 interfacial-layer thickness (from memory, verify)' },
+    when: INTERFACE_STATES,
+  },
+  interfaceLayerPermittivity: {
+    flag: '--interface-layer-permittivity <ER>', help: 'interfacial layer relative permittivity', defaultText: 'library value, else 1',
+    ...plain([1, 1000]), label: 'interfacial layer permittivity', library: (r) => r.support?.interfaceLayerPermittivity,
+    fallback: { value: 1, note: 'vacuum-like gap of Cowley & Sze (1965) (from memory, verify)' },
+    when: INTERFACE_STATES,
+  },
+  localisedSites: {
+    flag: '--localised-sites <N>', help: 'sites for localised (small-polaron) electrons (cm^-3 if bare)', defaultText: 'library value of the support, else none',
+    kind: 'quantity', quantity: 'volumeDensity', limits: DENSITY_M3, label: 'localised-electron sites', library: (r) => r.support?.localisedSiteDensity_cm3,
+  },
+  localisedLevel: {
+    flag: '--localised-level <E>', help: 'localised-electron level depth below E_C', defaultText: 'library value of the support',
+    ...energy(LEVEL_EV), label: 'localised level (depth below E_C)', library: (r) => r.support?.localisedLevel_eV,
+    when: { test: (c) => positive(c, 'localisedSites'), text: 'with --localised-sites' },
   },
   geometry: {
     flag: '--geometry <KIND>', help: 'planar contact, isolated hemisphere, or particle array', defaultText: 'planar', kind: 'choice',
