@@ -127,12 +127,12 @@ export function solveResolved(r: ResolvedContact): ContactResult {
   let barrier: BarrierResult;
   let bandBending_eV: number;
   let solution: PoissonSolution;
-  let interfaceStates: InterfaceAlignment | null = null;
+  let interfaceStates: (InterfaceAlignment & InterfaceStateParameters) | null = null;
   if (r.barrierModel === 'interface-states') {
     const params = interfaceParametersOf(r);
     let last: { bandBending_eV: number; solution: PoissonSolution } | null = null;
     // Bardeen / Cowley–Sze: the barrier, the interface-state charge and the space charge solved together
-    interfaceStates = solveInterfaceAlignment({
+    interfaceStates = { ...params, ...solveInterfaceAlignment({
       ...params,
       metalWorkFunction_eV: r.metal.workFunction_eV,
       electronAffinity_eV: s.electronAffinity_eV,
@@ -144,7 +144,7 @@ export function solveResolved(r: ResolvedContact): ContactResult {
         return last.solution.totalCharge_C / geometry.interfaceArea_m2;
       },
       tolerance_eV: 1e-9,
-    });
+    }) };
     bandBending_eV = interfaceStates.bandBending_eV;
     const previous = last as { bandBending_eV: number; solution: PoissonSolution } | null;
     solution = previous !== null && previous.bandBending_eV === bandBending_eV ? previous.solution : solveAt(bandBending_eV);

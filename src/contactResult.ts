@@ -1,4 +1,5 @@
-import type { InterfaceAlignment } from './interface/interfaceStates.js';
+import { observedBandBending_eV, seahDenchImfpCompound_m } from './derived/photoemission.js';
+import type { InterfaceAlignment, InterfaceStateParameters } from './interface/interfaceStates.js';
 // The only place where the SI physics of one contact becomes the display units of the JSON contract
 // (src/types.ts: nm, cm^-3, A/cm^2; add fields freely, never rename).
 import { Q_ELEMENTARY_C } from './constants.js';
@@ -10,7 +11,7 @@ import type { ParticleAtomCount, ChargingSummary } from './derived/particle.js';
 import type { EquilibrationTime, ThermionicExchange } from './derived/exchange.js';
 import type { ResolvedContact } from './inputs/contactInput.js';
 import { contactCautions } from './output/cautions.js';
-import type { ContactResult, ExchangeInfo, FlowDirection, ParticleInfo, Profile, Warning } from './types.js';
+import type { ContactResult, ExchangeInfo, FlowDirection, InterfaceStatesInfo, ParticleInfo, PhotoemissionInfo, Profile, Warning } from './types.js';
 
 export interface ExchangeKinetics {
   current: ThermionicExchange;
@@ -42,7 +43,7 @@ export interface ContactPhysics {
   zonesOverlap: boolean | null;
   exchange: ExchangeKinetics | null;
   /** interface-states model: the self-consistent alignment (null for the other barrier models) */
-  interfaceStates: InterfaceAlignment | null;
+  interfaceStates: (InterfaceAlignment & InterfaceStateParameters) | null;
 }
 
 const NM_PER_M = 1e9;
@@ -85,6 +86,8 @@ export function toContactResult(p: ContactPhysics, warnings: Warning[]): Contact
     donorDensity_cm3: s.donors_m3 * CM3_PER_M3,
     acceptorDensity_cm3: s.acceptors_m3 * CM3_PER_M3,
     pinningFactor: barrier.pinningFactor,
+    interfaceStates: interfaceStatesInfo(p),
+    photoemission: photoemissionInfo(p),
     chargeDepth90_nm: p.depth90_m * NM_PER_M,
     supportFullyDepleted: warnings.some((w) => w.code === 'fully-depleted'),
     bulk: bulkInfo(bulk),
@@ -114,6 +117,45 @@ function bulkInfo(bulk: BulkState): ContactResult['bulk'] {
     conductionDensityOfStates_cm3: bulk.conductionDos_m3 * CM3_PER_M3,
     valenceDensityOfStates_cm3: bulk.valenceDos_m3 * CM3_PER_M3,
     intrinsicDensityLog10_cm3: bulk.intrinsicDensityLog10_cm3,
+    localisedElectrons_cm3: bulk.localisedElectrons_m3 * CM3_PER_M3,
+  };
+}
+
+function interfaceStatesInfo(p: ContactPhysics): InterfaceStatesInfo | null {
+  const a = p.interfaceStates;
+  if (a === null) return null;
+  const share = (p.geometry.particleFootprint_m2 ?? p.geometry.interfaceArea_m2) / Q_ELEMENTARY_C;
+  return {
+    stateDensity_per_eV_cm2: a.stateDensity_per_eV_m2 * CM2_PER_M2,
+    neutralLevelAboveValence_eV: a.neutralLevelAboveValence_eV,
+    layerThickness_nm: a.layerThickness_m * NM_PER_M,
+    layerPermittivity: a.layerPermittivity,
+    interfaceStateCharge_C_per_m2: a.interfaceStateCharge_C_per_m2,
+    metalCharge_C_per_m2: a.metalCharge_C_per_m2,
+    layerDrop_eV: a.layerDrop_eV,
+    electronsFromInterfaceStates: a.interfaceStateCharge_C_per_m2 * share,
+    electronsFromSpaceCharge: p.spaceCharge_C_per_m2 * share,
+    evaluations: a.iterations,
+  };
+}
+
+// Photoemission of the support: O 1s (binding energy ~530 eV, common practice, no source) excited by Al K-alpha
+// (1486.6 eV), normal emission; monolayer thickness 0.22 nm typical of oxides (common practice, no source).
+const PHOTON_ENERGY_EV = 1486.6;
+const O1S_BINDING_EV = 530;
+const OXIDE_MONOLAYER_M = 0.22e-9;
+
+function photoemissionInfo(p: ContactPhysics): PhotoemissionInfo {
+  const imfp_m = seahDenchImfpCompound_m(PHOTON_ENERGY_EV - O1S_BINDING_EV, OXIDE_MONOLAYER_M);
+  const kT = p.kT_eV;
+  const x_m = Array.from(p.solution.x_m);
+  const bending = Array.from(p.solution.u, (u) => u * kT);
+  return {
+    observedBandBending_eV: observedBandBending_eV(x_m, bending, imfp_m, 0),
+    inelasticMeanFreePath_nm: imfp_m * NM_PER_M,
+    photonEnergy_eV: PHOTON_ENERGY_EV,
+    coreLevel: 'O 1s',
+    emissionAngle_deg: 0,
   };
 }
 

@@ -123,8 +123,12 @@ export interface ContactResult {
   electronsPerParticle: number;
   donorDensity_cm3: number;
   acceptorDensity_cm3: number;
-  /** pinning factor used by the pinned model (null otherwise) */
+  /** pinning factor used by the pinned model, or the slope that emerges from the interface states (null otherwise) */
   pinningFactor: number | null;
+  /** interface-states model (Bardeen; Cowley & Sze 1965): the self-consistent interface (null for other models) */
+  interfaceStates: InterfaceStatesInfo | null;
+  /** what photoemission of the support would see: the band bending averaged over the information depth */
+  photoemission: PhotoemissionInfo;
   /** depth from the interface holding 90% of the space charge, nm */
   chargeDepth90_nm: number;
   /** a finite support grain depleted through its whole thickness (charge capped by the donors available) */
@@ -138,6 +142,8 @@ export interface ContactResult {
     valenceDensityOfStates_cm3: number;
     /** log10 of the intrinsic density in cm^-3 (may be far below 1e-30, so given as a log) */
     intrinsicDensityLog10_cm3: number;
+    /** electrons in localised (small-polaron) states, cm^-3 (0 without them) */
+    localisedElectrons_cm3: number;
   };
   particle: ParticleInfo;
   exchange: ExchangeInfo | null;
@@ -149,4 +155,34 @@ export interface ContactResult {
   /** provenance of every input used */
   inputs: InputProvenance[];
   uncertainty?: UncertaintySummary;
+}
+
+export interface InterfaceStatesInfo {
+  /** density of interface states, per eV per cm^2 */
+  stateDensity_per_eV_cm2: number;
+  /** charge-neutrality level above E_V, eV */
+  neutralLevelAboveValence_eV: number;
+  layerThickness_nm: number;
+  layerPermittivity: number;
+  /** charge of the interface states, C/m^2 (positive = states gave electrons to the metal) */
+  interfaceStateCharge_C_per_m2: number;
+  /** charge of the metal side, C/m^2: -(space charge + interface states) */
+  metalCharge_C_per_m2: number;
+  /** potential step across the interfacial layer (vacuum level, metal minus support), eV */
+  layerDrop_eV: number;
+  /** electrons the particle gained from the interface states and from the space charge */
+  electronsFromInterfaceStates: number;
+  electronsFromSpaceCharge: number;
+  /** Brent evaluations (Poisson solves) of the self-consistent alignment */
+  evaluations: number;
+}
+
+export interface PhotoemissionInfo {
+  /** band bending averaged with weight exp(-x / (lambda cos theta)) over the profile, eV */
+  observedBandBending_eV: number;
+  /** inelastic mean free path used (Seah & Dench 1979, inorganic compounds), nm */
+  inelasticMeanFreePath_nm: number;
+  photonEnergy_eV: number;
+  coreLevel: string;
+  emissionAngle_deg: number;
 }

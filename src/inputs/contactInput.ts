@@ -142,10 +142,10 @@ const CROSS_RULES: { option: OptionName; refuse: (o: ContactOptions, c: Resoluti
     allowed: 'the given barrier model needs --barrier E',
   },
   {
-    option: 'barrierModel',
+    option: 'neutralLevelAboveValence',
     refuse: (_o, c) => c.value('barrierModel') === 'interface-states' && c.value('neutralLevelAboveValence') === undefined,
-    message: 'interface-states needs a charge-neutrality level, and the library has none for this support',
-    allowed: 'give --neutral-level-above-valence E, or --barrier-model ideal|pinned|given',
+    message: 'missing: --barrier-model interface-states needs a charge-neutrality level, and the library has none for this support',
+    allowed: 'an energy above E_V, or --barrier-model ideal|pinned|given',
   },
   {
     option: 'particleDensity',

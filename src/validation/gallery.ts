@@ -155,15 +155,24 @@ export const DEFAULT_PARTICLE_DIAMETER_NM = 2;
 
 export type SolveFunction = (options: Record<string, unknown>) => unknown;
 
+/** A barrier model, or 'default': whatever the parameter table picks for each support. */
+export type GalleryModel = BarrierModel | 'default';
+
 export interface ModelChoice {
-  /** passed as barrierModel; with the library defaults of the time */
-  barrierModel: BarrierModel;
+  /** passed as barrierModel; 'default' leaves it to the library default (interface states where data exist) */
+  barrierModel: GalleryModel;
   /** further options added to every contact (never tuned to the gallery) */
   extra?: Record<string, unknown>;
 }
 
 function base(row: { metalKey: string | null; supportKey: string | null }, T: number, model: ModelChoice): Record<string, unknown> {
-  return { metal: row.metalKey, support: row.supportKey, temperature: T, barrierModel: model.barrierModel, ...(model.extra ?? {}) };
+  return {
+    metal: row.metalKey,
+    support: row.supportKey,
+    temperature: T,
+    ...(model.barrierModel === 'default' ? {} : { barrierModel: model.barrierModel }),
+    ...(model.extra ?? {}),
+  };
 }
 
 /** Planar contact at the measured temperature and, where the paper gives it, donor density (cm^-3). */
@@ -320,7 +329,7 @@ export interface BandBendingStatistics {
 }
 
 export interface ValidationStatistics {
-  model: BarrierModel;
+  model: GalleryModel;
   barrier: BarrierStatistics;
   charge: ChargeStatistics;
   bandBending: BandBendingStatistics;
@@ -332,8 +341,8 @@ export interface ValidationResult {
 }
 
 export interface ValidationOptions {
-  /** barrier model (default 'ideal') */
-  model?: BarrierModel;
+  /** barrier model (default 'ideal'); 'default' = the library's default model per support */
+  model?: GalleryModel;
   /** extra contact options for every row (e.g. statistics), never fitted to the gallery */
   extra?: Record<string, unknown>;
   /** solver (default solveContact); it receives contact options and returns a ContactResult-like object */
@@ -415,7 +424,7 @@ export function runValidation(options: ValidationOptions = {}): ValidationResult
 }
 
 /** Statistics of a set of compared rows (pure). */
-export function summarise(rows: readonly ValidationRow[], model: BarrierModel): ValidationStatistics {
+export function summarise(rows: readonly ValidationRow[], model: GalleryModel): ValidationStatistics {
   const ok = (kind: ValidationRow['kind']) => rows.filter((r) => r.kind === kind && r.status === 'ok' && r.predicted !== null);
   const failed = (kind: ValidationRow['kind']) => rows.filter((r) => r.kind === kind && r.status === 'failed').length;
   const supportOf = (r: ValidationRow) => r.supportKey ?? r.support;
@@ -462,7 +471,7 @@ export function summarise(rows: readonly ValidationRow[], model: BarrierModel): 
 // ------------------------------------------------------------------------------------------ baseline
 
 /** Models in the committed baseline (validation/baseline.json). */
-export const BASELINE_MODELS: readonly BarrierModel[] = ['ideal', 'pinned'];
+export const BASELINE_MODELS: readonly GalleryModel[] = ['ideal', 'pinned', 'default'];
 
 /** Tolerances of the baseline test: an error may grow by this much, a fraction may drop by this much. */
 export const BASELINE_TOLERANCE = { error_eV: 0.01, fraction: 0.001 } as const;
