@@ -278,7 +278,15 @@ describe('study file validation', () => {
 
 describe('outputs', () => {
   it('list every scalar leaf of a real result', () => {
-    const result = solveContact({ ...CUSTOM, geometry: 'array', particleDensity: '1e11', materials: emptyLibrary() });
+    // interface-states model, so the interface-state fields are filled in too
+    const result = solveContact({
+      ...CUSTOM,
+      geometry: 'array',
+      particleDensity: '1e11',
+      barrierModel: 'interface-states',
+      neutralLevelAboveValence: '1.5 eV',
+      materials: emptyLibrary(),
+    });
     const leaves: string[] = [];
     const walk = (node: unknown, prefix: string): void => {
       for (const [k, v] of Object.entries(node as Record<string, unknown>)) {
