@@ -14,6 +14,7 @@ import {
 } from './interface/interfaceStates.js';
 import { PLANAR, hemisphere, particleArray, type CrossSection } from './electrostatics/geometry.js';
 import { solvePoisson, REFINE_ABOVE, type PoissonSolution } from './electrostatics/poisson.js';
+import { particleDensityOfStates_per_eV, particleWorkFunction_eV } from './derived/finiteParticle.js';
 import { particleAtoms, chargingSummary, effectivePermittivity, meanSpacing_m } from './derived/particle.js';
 import { thermionicExchangeCurrent_A_per_m2, equilibrationTime_s, SLOW_EXCHANGE_THRESHOLD_S } from './derived/exchange.js';
 import {
@@ -111,6 +112,7 @@ export function solveResolved(r: ResolvedContact): ContactResult {
   const bulk = solveBulkNeutrality(model);
   const nType = bulk.electronDensity_m3 >= bulk.holeDensity_m3;
   const geometry = GEOMETRIES[r.geometry](r);
+  const metalWorkFunction_eV = particleWorkFunction_eV(r);
   const solveAt = (bandBending_eV: number): PoissonSolution => {
     checkBandBending(bandBending_eV);
     return solvePoisson({
@@ -134,7 +136,8 @@ export function solveResolved(r: ResolvedContact): ContactResult {
     // Bardeen / Cowley–Sze: the barrier, the interface-state charge and the space charge solved together
     interfaceStates = { ...params, ...solveInterfaceAlignment({
       ...params,
-      metalWorkFunction_eV: r.metal.workFunction_eV,
+      metalWorkFunction_eV: metalWorkFunction_eV,
+      particle: finiteParticleTerm(r, geometry),
       electronAffinity_eV: s.electronAffinity_eV,
       bandGap_eV: s.bandGap_eV,
       fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV,
@@ -158,7 +161,7 @@ export function solveResolved(r: ResolvedContact): ContactResult {
   } else {
     barrier = barrierHeight({
       model: r.barrierModel,
-      metalWorkFunction_eV: r.metal.workFunction_eV,
+      metalWorkFunction_eV: metalWorkFunction_eV,
       electronAffinity_eV: s.electronAffinity_eV,
       bandGap_eV: s.bandGap_eV,
       opticalPermittivity: s.opticalPermittivity,
@@ -207,6 +210,19 @@ function derivePhysics(c: SolvedContact): ContactPhysics {
     // neighbouring layers meet when the charge reaches half-way to the next particle
     zonesOverlap: meanSpacing !== null ? depth90_m > meanSpacing / 2 : null,
     exchange: exchangeKinetics(c, spaceCharge),
+  };
+}
+
+/** The particle's finite density of states (quantum capacitance) in the alignment, when the library has it. */
+function finiteParticleTerm(r: ResolvedContact, geometry: CrossSection) {
+  const m = r.metal;
+  if (r.geometry === 'planar' || m.densityOfStates_per_eV_atom === undefined) return undefined;
+  if (m.density_g_cm3 === undefined || m.molarMass_g_mol === undefined || m.metallicRadius_pm === undefined) return undefined;
+  const atoms = particleAtoms({ diameter_m: r.particleDiameter_m, density_g_cm3: m.density_g_cm3, molarMass_g_mol: m.molarMass_g_mol, metallicRadius_pm: m.metallicRadius_pm });
+  return {
+    densityOfStates_per_eV: particleDensityOfStates_per_eV(m.densityOfStates_per_eV_atom, atoms.atoms),
+    footprintArea_m2: geometry.interfaceArea_m2,
+    interfaceArea_m2: geometry.interfaceArea_m2,
   };
 }
 

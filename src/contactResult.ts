@@ -1,3 +1,4 @@
+import { particleWorkFunction_eV } from './derived/finiteParticle.js';
 import { observedBandBending_eV, seahDenchImfpCompound_m } from './derived/photoemission.js';
 import type { InterfaceAlignment, InterfaceStateParameters } from './interface/interfaceStates.js';
 // The only place where the SI physics of one contact becomes the display units of the JSON contract
@@ -71,6 +72,7 @@ export function toContactResult(p: ContactPhysics, warnings: Warning[]): Contact
     barrierHeight_eV: barrier.barrierHeight_eV,
     electronBarrier_eV: barrier.electronBarrier_eV,
     metalWorkFunction_eV: r.metal.workFunction_eV,
+    particleWorkFunction_eV: particleWorkFunction_eV(r),
     bandBending_eV: p.bandBending_eV,
     fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV,
     // support work function Phi_s = chi + (E_C - E_F)_bulk

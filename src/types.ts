@@ -123,6 +123,8 @@ export interface ContactResult {
   electronsPerParticle: number;
   donorDensity_cm3: number;
   acceptorDensity_cm3: number;
+  /** work function that sets the particle's Fermi level: size-corrected for hemisphere and array geometry (Wood 1981) */
+  particleWorkFunction_eV: number;
   /** pinning factor used by the pinned model, or the slope that emerges from the interface states (null otherwise) */
   pinningFactor: number | null;
   /** interface-states model (Bardeen; Cowley & Sze 1965): the self-consistent interface (null for other models) */

@@ -1,3 +1,4 @@
+import type { ResolvedContact } from '../inputs/contactInput.js';
 // The finite metal particle in the contact: size-dependent work function, density of states at E_F (quantum
 // capacitance) and a hard bound on the charge it can exchange with the support. Pure functions; energies in eV,
 // lengths in m. Library names (MetalRecord): `densityOfStatesAtFermi_per_eV_atom`, `sizeWorkFunctionCoefficient`.
@@ -191,3 +192,14 @@ export function transferredChargeBound(input: TransferBoundInput): TransferBound
     capacitanceLimit: { gained: capGain, lost: capLoss },
   };
 }
+
+/**
+ * Work function that sets the Fermi level of a small particle (hemisphere and array geometry, library metals with a
+ * size coefficient): W(R) = W + (alpha - 1/2) e^2/(4 pi eps0 R) (Wood, PRL 46, 749 (1981); src/derived/finiteParticle.ts).
+ */
+export function particleWorkFunction_eV(r: Pick<ResolvedContact, 'metal' | 'geometry' | 'particleDiameter_m'>): number {
+  const alpha = r.metal.sizeWorkFunctionCoefficient;
+  if (r.geometry === 'planar' || alpha === undefined) return r.metal.workFunction_eV;
+  return neutralParticleWorkFunction_eV(r.metal.workFunction_eV, r.particleDiameter_m / 2, alpha);
+}
+

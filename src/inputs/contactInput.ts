@@ -64,6 +64,10 @@ export interface ResolvedMetal {
   density_g_cm3: number | undefined;
   molarMass_g_mol: number | undefined;
   metallicRadius_pm: number | undefined;
+  /** density of states at E_F per atom per eV (finite-particle quantum capacitance) */
+  densityOfStates_per_eV_atom: number | undefined;
+  /** alpha of the size-dependent ionisation potential IP = W + alpha e^2/(4 pi eps0 R) */
+  sizeWorkFunctionCoefficient: number | undefined;
 }
 
 export interface ResolvedContact {
@@ -393,6 +397,8 @@ function assembleResolved(c: Resolution): ResolvedContact {
     density_g_cm3: numbers(m?.density_g_cm3, 'metal density', 'g/cm^3'),
     molarMass_g_mol: numbers(m?.molarMass_g_mol, 'metal molar mass', 'g/mol'),
     metallicRadius_pm: numbers(m?.metallicRadius_pm, 'metallic radius', 'pm'),
+    densityOfStates_per_eV_atom: numbers(m?.densityOfStatesAtFermi_per_eV_atom, 'metal density of states at E_F', 'eV^-1 atom^-1'),
+    sizeWorkFunctionCoefficient: numbers(m?.sizeWorkFunctionCoefficient, 'size coefficient of the work function', ''),
   };
   const formula = c.value('supportFormula') as string | undefined;
   const support: ResolvedSupport = {

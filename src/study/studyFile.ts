@@ -127,6 +127,7 @@ export const OUTPUT_PATHS = [
   'bulk.valenceDensityOfStates_cm3',
   'bulk.intrinsicDensityLog10_cm3',
   'bulk.localisedElectrons_cm3',
+  'particleWorkFunction_eV',
   'interfaceStates.stateDensity_per_eV_cm2',
   'interfaceStates.neutralLevelAboveValence_eV',
   'interfaceStates.layerThickness_nm',
