@@ -203,6 +203,15 @@ describe('bandbend validate: text, report, bad input', () => {
     expect(readFileSync(join(other, 'keep.txt'), 'utf8')).toBe('mine');
   });
 
+  it('validate --help exits 0 with Examples, and bandbend --help lists it', () => {
+    const r = bandbend(['validate', '--help']);
+    expect(r.code, show(r)).toBe(0);
+    expect(r.stdout).toContain('Usage: bandbend validate');
+    expect(r.stdout).toContain('Examples');
+    expect(r.stderr).toBe('');
+    expect(bandbend(['--help']).stdout).toMatch(/^\s+validate\b/m);
+  });
+
   it('unknown options are usage errors (exit 2)', () => {
     const r = bandbend(['validate', '--no-such-flag']);
     expect(r.code, show(r)).toBe(2);
