@@ -39,3 +39,8 @@ export { formatContactSummary } from './output/summary.js';
 export { writeStudyPlots } from './output/studyPlots.js';
 export { formatNumber, formatQuantity } from './output/format.js';
 export { SCREENING_CAUTION, contactCautions } from './output/cautions.js';
+
+// validation against published measurements
+export { runValidation, type ValidationOptions, type ValidationResult, type ValidationRow, type ValidationStatistics } from './validation/gallery.js';
+export { writeValidationReport, type ValidationReportPaths } from './validation/report.js';
+export { observedBandBending_eV, bandBendingProfile, seahDenchImfpCompound_m, kineticEnergy_eV, monolayerThickness_m } from './derived/photoemission.js';

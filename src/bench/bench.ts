@@ -36,6 +36,14 @@
 //    outputs bandBending_eV and electronsPerParticle, CSV + JSONL into a temporary folder (removed at the end);
 //    jobs 1 and jobs 2; wall time around runStudy (includes worker start-up and file writing). Also a 4-point
 //    study with jobs 2 to show the fixed worker start-up cost.
+//  STARTUP: wall time of the CLI answering one contact as JSON,
+//    `node bin/bandbend.js contact --metal Pt --support ZnO --donors "1e17 cm^-3" --temperature "473 K" --json`,
+//    against `node -e 0` (bare Node start-up), each spawned 11 times in alternation (spawnSync, wall time around the
+//    call); reported as medians and their ratio (startup_ratio = CLI / bare node). Includes module loading and the
+//    library lookup, so it is what a user or a shell script waits for.
+//  STUDY JOBS: benchStudyJobs() of src/study/benchStudy.ts: a 10k-point study (custom planar contact) run alternately
+//    with jobs 2 and jobs 1, 3 repeats; median wall times and their ratio (studyJobs_speedup = jobs 1 / jobs 2).
+//    BENCH_QUICK=1 runs it on 400 points with 1 repeat (studyJobs_points says which).
 //  BREAKDOWN: manual timers around the pieces of one planar and one hemisphere typical solve (first integral,
 //    mesh, initial guess, charge-model calls, tridiagonal solves, geometry integrals, typed-array allocations) to
 //    show where the time goes; Newton's share is reconstructed from counted charge-model calls (see benchBreakdown).
@@ -45,9 +53,11 @@
 // on a shared machine hits every case alike; the best and worst round medians are printed to show that load.
 // The study runs alternate jobs 2 and jobs 1, and report CPU time / wall time (cores actually obtained).
 // Run it at least twice on a shared machine and compare: the JSON carries the load average before and after.
+import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { performance } from 'node:perf_hooks';
 import { makeChargeModel, solveBulkNeutrality, type ChargeModel, type SupportElectronic } from '../bulk/equilibrium.js';
 import { solveContact, type ContactOptions } from '../contact.js';
@@ -60,6 +70,7 @@ import { solvePoisson as solvePoissonReference } from './legacy/poisson.js';
 import { loadLibrary } from '../materials/load.js';
 import type { MaterialsLibrary } from '../materials/types.js';
 import { runScreen } from '../screen.js';
+import { benchStudyJobs, type StudyJobsBench } from '../study/benchStudy.js';
 import { runStudy } from '../study/runner.js';
 import { parseStudy } from '../study/studyFile.js';
 import type { Statistics } from '../types.js';
@@ -256,6 +267,17 @@ interface BenchSummary {
   study10k_cpuPerWall_jobs1: number;
   study10k_cpuPerWall_jobs2: number;
   studyStartup_s_jobs2: number;
+  /** median wall time of the CLI contact --json, of `node -e 0`, and their ratio (CLI / bare node) */
+  startup_cli_ms_median: number;
+  startup_node_ms_median: number;
+  startup_ratio: number;
+  startup_runs: number;
+  /** benchStudyJobs(): jobs 2 vs jobs 1 (points = 10000, or 400 with BENCH_QUICK=1) */
+  studyJobs_points: number;
+  studyJobs_s_jobs1: number;
+  studyJobs_s_jobs2: number;
+  studyJobs_speedup: number;
+  studyJobs_cpuPerWall_jobs2: number;
   scaling: ScalingPoint[];
   scalingExponent: number;
   breakdown_us: Record<string, number>;
@@ -738,6 +760,72 @@ async function benchStudy(): Promise<{ jobs1: StudyRun[]; jobs2: StudyRun[]; sta
 }
 
 // ---------------------------------------------------------------------------------------------
+// start-up of the command line
+
+const PACKAGE_ROOT = fileURLToPath(new URL('../../', import.meta.url));
+const STARTUP_CLI_ARGS = ['bin/bandbend.js', 'contact', '--metal', 'Pt', '--support', 'ZnO', '--donors', '1e17 cm^-3', '--temperature', '473 K', '--json'];
+const STARTUP_RUNS = 11;
+
+interface StartupBench {
+  cli_ms: number[];
+  node_ms: number[];
+  ratio: number;
+}
+
+/** Wall time of one spawned process, ms; throws if it fails (a failing CLI would make the ratio meaningless). */
+function spawnWall_ms(args: readonly string[]): number {
+  const t0 = performance.now();
+  const r = spawnSync(process.execPath, args, { cwd: PACKAGE_ROOT, encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
+  const ms = performance.now() - t0;
+  if (r.error) throw r.error;
+  if (r.status !== 0) throw new RangeError(`bench: \`node ${args.join(' ')}\` exited ${String(r.status)}: ${r.stderr.trim().slice(0, 300)}`);
+  return ms;
+}
+
+/** CLI contact --json vs `node -e 0`, alternating, one warm-up of each (file cache). */
+function benchStartup(runs = STARTUP_RUNS): StartupBench {
+  spawnWall_ms(['-e', '0']);
+  spawnWall_ms(STARTUP_CLI_ARGS);
+  const cli_ms: number[] = [];
+  const node_ms: number[] = [];
+  for (let i = 0; i < runs; i++) {
+    // alternate the order too, so neither always follows the other
+    if (i % 2 === 0) {
+      node_ms.push(spawnWall_ms(['-e', '0']));
+      cli_ms.push(spawnWall_ms(STARTUP_CLI_ARGS));
+    } else {
+      cli_ms.push(spawnWall_ms(STARTUP_CLI_ARGS));
+      node_ms.push(spawnWall_ms(['-e', '0']));
+    }
+  }
+  const ratio = median(cli_ms) / median(node_ms);
+  printTable(
+    'start-up: `bandbend contact --metal Pt --support ZnO --donors "1e17 cm^-3" --temperature "473 K" --json` vs `node -e 0`, wall time',
+    ['command', 'runs', 'median ms', 'p10 ms', 'p90 ms'],
+    [
+      ['bandbend contact --json', runs, median(cli_ms), statsOf(cli_ms).p10, statsOf(cli_ms).p90],
+      ['node -e 0', runs, median(node_ms), statsOf(node_ms).p10, statsOf(node_ms).p90],
+      ['ratio (CLI / node)', '', ratio, NaN, NaN],
+    ],
+  );
+  return { cli_ms, node_ms, ratio };
+}
+
+async function benchJobs(quick: boolean): Promise<StudyJobsBench> {
+  const r = await benchStudyJobs(quick ? { points: 400, repeats: 1 } : { points: 10_000, repeats: 3 });
+  printTable(
+    `benchStudyJobs: ${r.points}-point study, jobs 2 vs jobs 1 (alternating), wall time`,
+    ['jobs', 'runs (s)', 'median s', 'points/s'],
+    [
+      [1, r.runs_jobs1_s.map((x) => x.toFixed(2)).join(' '), r.jobs1_s, r.points / r.jobs1_s],
+      [2, r.runs_jobs2_s.map((x) => x.toFixed(2)).join(' '), r.jobs2_s, r.points / r.jobs2_s],
+      ['speed-up (jobs 1 / jobs 2)', '', r.speedup, NaN],
+    ],
+  );
+  return r;
+}
+
+// ---------------------------------------------------------------------------------------------
 
 async function main(): Promise<void> {
   const started = performance.now();
@@ -752,6 +840,8 @@ async function main(): Promise<void> {
   // BENCH_QUICK=1 skips the screen and the 10k-point study (minutes on a shared machine); their keys are then 0
   const quick = process.env['BENCH_QUICK'] === '1';
   const screen = quick ? { stats: { median: 0 } } : benchScreen();
+  const startup = benchStartup();
+  const jobs = await benchJobs(quick);
   const study = quick ? { jobs1: [{ wall_s: 0, cpuPerWall: 0 }], jobs2: [{ wall_s: 0, cpuPerWall: 0 }], startup2: 0, failed: 0 } : await benchStudy();
 
   const relErrors = accuracy.map((c) => c.relError);
@@ -789,6 +879,15 @@ async function main(): Promise<void> {
     study10k_cpuPerWall_jobs1: round(median(study.jobs1.map((r) => r.cpuPerWall)), 3),
     study10k_cpuPerWall_jobs2: round(median(study.jobs2.map((r) => r.cpuPerWall)), 3),
     studyStartup_s_jobs2: round(study.startup2),
+    startup_cli_ms_median: round(median(startup.cli_ms)),
+    startup_node_ms_median: round(median(startup.node_ms)),
+    startup_ratio: round(startup.ratio, 3),
+    startup_runs: startup.cli_ms.length,
+    studyJobs_points: jobs.points,
+    studyJobs_s_jobs1: round(jobs.jobs1_s),
+    studyJobs_s_jobs2: round(jobs.jobs2_s),
+    studyJobs_speedup: round(jobs.speedup, 3),
+    studyJobs_cpuPerWall_jobs2: round(jobs.cpuPerWall_jobs2, 3),
     scaling,
     scalingExponent: round(scalingExponent, 3),
     breakdown_us: breakdown,

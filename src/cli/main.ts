@@ -8,6 +8,7 @@ import { registerStudyCommand } from './study.js';
 import { registerMottSchottky } from './mottSchottky.js';
 import { registerDemo } from './demo.js';
 import { registerMaterials } from './materials.js';
+import { registerValidate } from './validate.js';
 
 export { readInputFile } from './io.js';
 
@@ -26,6 +27,7 @@ function buildProgram(): Command {
   registerMottSchottky(program);
   registerDemo(program);
   registerMaterials(program);
+  registerValidate(program);
   return program;
 }
 
