@@ -69,7 +69,7 @@ export interface ContactOptions {
   acceptorLevel?: QuantityInput;
   /** temperature, K if bare @default 300 K */
   temperature?: QuantityInput;
-  /** barrier model @default interface-states where the library has a charge-neutrality level for the support, else ideal */
+  /** barrier model @default interface-states where the library has a charge-neutrality level inside the gap for the support, else ideal */
   barrierModel?: BarrierModel;
   /** pinning factor S (pinned and interface-states models) @default library value, else empirical from the optical permittivity */
   pinningFactor?: QuantityInput;
@@ -190,6 +190,11 @@ const plain = (limits: readonly [number, number]): Shape => ({ kind: 'quantity',
 const DENSITY_M3 = [0, 1e29] as const;
 const LEVEL_EV = [0, 10] as const;
 const MASS_ME = [0.01, 50] as const;
+function neutralLevelInGap(c: RowContext): boolean {
+  const level = c.records.support?.chargeNeutralityAboveValence_eV?.value;
+  const gap = c.value('bandGap');
+  return level !== undefined && typeof gap === 'number' && level <= gap;
+}
 const INTERFACE_STATES = { test: (c: RowContext) => c.value('barrierModel') === 'interface-states', text: 'with --barrier-model interface-states' };
 const PERMITTIVITY = [1, 1e5] as const;
 const FREE_MASS = { value: 1, note: 'not given: free-electron mass assumed' };
@@ -320,9 +325,10 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
     libraryLabel: (r) => `acceptor level (${r.support!.acceptor!.label})`,
   },
   barrierModel: {
-    flag: '--barrier-model <MODEL>', help: 'barrier model', defaultText: 'interface-states where the library has a charge-neutrality level for the support, else ideal',
+    flag: '--barrier-model <MODEL>', help: 'barrier model', defaultText: 'interface-states where the library has a charge-neutrality level inside the gap for the support, else ideal',
     kind: 'choice', choices: ['interface-states', 'ideal', 'pinned', 'given'],
-    fallback: { value: (c) => (c.records.support?.chargeNeutralityAboveValence_eV !== undefined ? 'interface-states' : 'ideal') },
+    // the interface-state model needs the level inside the gap (In2O3's lies above the CBM: King et al. 2008)
+    fallback: { value: (c) => (neutralLevelInGap(c) ? 'interface-states' : 'ideal') },
   },
   pinningFactor: {
     flag: '--pinning-factor <S>', help: 'pinning factor S', defaultText: 'library value, else empirical from the optical permittivity',
