@@ -29,7 +29,7 @@ import {
   spaceChargeDensity_C_per_m2,
 } from './derived/spaceCharge.js';
 import { evaluateWarnings, type WarningFacts } from './derived/warnings.js';
-import { finiteLog10, toContactResult, type ContactPhysics, type ExchangeKinetics } from './contactResult.js';
+import { debyeLengthOrNull, finiteLog10, toContactResult, type ContactPhysics, type ExchangeKinetics } from './contactResult.js';
 import type { ContactResult, GeometryKind } from './types.js';
 
 export type { ContactOptions, ResolvedContact } from './inputs/contactInput.js';
@@ -269,7 +269,7 @@ function warningFacts(p: ContactPhysics): WarningFacts {
     refineAbove: REFINE_ABOVE,
     meetsTolerance: solution.meetsTolerance,
     chargeErrorBound: solution.chargeErrorBound,
-    debyeLength_m: solution.debyeLength_m,
+    debyeLength_m: debyeLengthOrNull(solution.debyeLength_m),
     statistics: r.statistics,
     interfaceReducedFermiLevel: xiAt(0),
     atoms: p.atoms?.atoms ?? null,

@@ -63,6 +63,14 @@ export function finiteLog10(log10: number): number {
   return Number.isFinite(log10) ? log10 : log10 > 0 ? 308 : -308;
 }
 
+/**
+ * The bulk Debye length when it is a length at all: null where nothing screens (solver null) or where it exceeds
+ * 1 m (e.g. 1e117 m for an undoped 5 eV-gap insulator at 50 K: no sample screens over such a length).
+ */
+export function debyeLengthOrNull(debyeLength_m: number | null): number | null {
+  return debyeLength_m !== null && Number.isFinite(debyeLength_m) && debyeLength_m <= 1 ? debyeLength_m : null;
+}
+
 const nmOrNull = (x_m: number | null): number | null => (x_m === null ? null : x_m * NM_PER_M);
 
 export function toContactResult(p: ContactPhysics, warnings: Warning[]): ContactResult {
@@ -90,7 +98,7 @@ export function toContactResult(p: ContactPhysics, warnings: Warning[]): Contact
     depletionWidthApproxIsPlanar: r.geometry !== 'planar',
     sphericalDepletionWidth_nm: nmOrNull(p.sphericalDepletionWidth_m),
     ...headlineWidth(p),
-    debyeLength_nm: nmOrNull(solution.debyeLength_m),
+    debyeLength_nm: nmOrNull(debyeLengthOrNull(solution.debyeLength_m)),
     interfaceField_V_per_m: p.interfaceField_V_per_m,
     imageForceLowering_eV: imageForceLowering_eV(p.interfaceField_V_per_m, s.opticalPermittivity),
     imageForceMaximum_nm: p.imageForce.maximumDistance_m * NM_PER_M,

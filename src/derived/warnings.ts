@@ -188,7 +188,7 @@ export const WARNING_RULES: readonly WarningRule[] = [
   {
     code: 'debye-undefined',
     applies: (f) => f.debyeLength_m === null,
-    message: () => 'the bulk Debye length is not defined (no mobile or ionisable charge screens in the bulk): debyeLength_nm is null',
+    message: () => 'the bulk Debye length is not defined or exceeds 1 m (nothing screens in the bulk): debyeLength_nm is null',
   },
   {
     code: 'implausible-charge',
