@@ -279,6 +279,7 @@ function warningFacts(p: ContactPhysics): WarningFacts {
     fieldPermittivity: p.interfaceField_V_per_m !== 0 && r.support.permittivity > 50 ? devonshirePermittivity(clamp(p.interfaceField_V_per_m, 1e11), Math.min(r.support.permittivity, 1e5), SRTIO3_LIKE_BETA) : null,
     imageForceMaximum_m: p.imageForce.maximumDistance_m,
     imageForceValid: p.imageForce.valid,
+    donorLevel_eV: r.support.donorLevel1_eV ?? null,
     relaxationLog10_s: p.exchange?.relaxation99 ? p.exchange.relaxation99.log10Seconds : null,
     historyTemperature_K: p.exchange?.history?.temperature_K ?? null,
     historyRelaxationLog10_s: p.exchange?.history ? p.exchange.history.time.log10Seconds : null,

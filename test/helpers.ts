@@ -155,6 +155,7 @@ export function warningFacts(overrides: Partial<WarningFacts> = {}): WarningFact
     imageForceMaximum_m: 3e-9,
     imageForceValid: true,
     relaxationLog10_s: -3,
+    donorLevel_eV: null,
     historyTemperature_K: null,
     historyRelaxationLog10_s: null,
     ...overrides,

@@ -51,6 +51,9 @@ describe('warning rules', () => {
     ['image-force-continuum', { imageForceValid: false, imageForceMaximum_m: 0.3e-9 }],
     // SrTiO3 permittivity falls with field (Devonshire, Phil. Mag. 40, 1040 (1949), from memory, verify)
     ['field-dependent-permittivity', { staticPermittivity: 300, interfaceField_V_per_m: 1e9, fieldPermittivity: 40 }],
+    // F centres in MgO absorb near 5 eV (Kappers, Kroes & Hensley, Phys. Rev. B 1, 4151 (1970), from memory, verify):
+    // donors in a 7.8 eV-gap oxide are eV deep, not shallow and fully ionised
+    ['shallow-donors-in-insulator', { bandGap_eV: 7.8, donors_m3: 1e24, donorLevel_eV: null }],
     // Boltzmann valid only 3 kT or more from a band edge (Sze & Ng, 3rd ed., sec. 1.4.1): degenerate at the interface
     ['boltzmann-invalid', { statistics: 'boltzmann', interfaceReducedFermiLevel: 2, bandBending_eV: -0.3, depth90_m: 2e-9 }],
     ['estimated-input', { estimatedInputs: ['electron affinity'] }],
@@ -86,6 +89,10 @@ describe('warning rules', () => {
     expect(codes({ electronsPerParticle: 45, surfaceAtoms: 150 })).toEqual([]);
     expect(codes({ electronsPerParticle: 150, surfaceAtoms: 150 })).toEqual(['implausible-charge']);
     expect(codes({ electronsPerParticle: -151, surfaceAtoms: 150 })).toEqual(['unphysical-charge']);
+  });
+  it('deep donors in a wide-gap oxide, or shallow ones in a 3.2 eV-gap oxide, raise no shallow-donor warning', () => {
+    expect(codes({ bandGap_eV: 7.8, donorLevel_eV: 2 })).toEqual([]);
+    expect(codes({ bandGap_eV: 3.2, donorLevel_eV: null })).toEqual([]);
   });
   it('the permittivity warning needs both a high permittivity and a high field', () => {
     expect(codes({ staticPermittivity: 300, interfaceField_V_per_m: 1e7 })).toEqual([]);

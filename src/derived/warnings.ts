@@ -61,6 +61,8 @@ export interface WarningFacts {
   imageForceValid: boolean;
   /** log10 s to 99% of the equilibrium charge at the reaction temperature and at the history's highest one */
   relaxationLog10_s: number | null;
+  /** depth of the (first) donor level below E_C, eV; null when the donors are taken as fully ionised */
+  donorLevel_eV: number | null;
   historyTemperature_K: number | null;
   historyRelaxationLog10_s: number | null;
 }
@@ -87,6 +89,13 @@ export const PLAUSIBLE_ELECTRONS_PER_SURFACE_ATOM = 0.3;
 export const MAX_ELECTRONS_PER_SURFACE_ATOM = 1;
 /** Static permittivity and interface field above which a field-independent permittivity is doubtful. */
 export const HIGH_PERMITTIVITY = 50;
+/**
+ * Band gap above which shallow, fully ionised donors are not credible: oxygen-vacancy (F-centre) electrons in MgO
+ * absorb near 5 eV, i.e. they are bound several eV deep (Kappers, Kroes & Hensley, Phys. Rev. B 1, 4151 (1970),
+ * from memory, verify); the same holds for Al2O3 and SiO2. A donor shallower than 0.1 eV there is flagged.
+ */
+export const WIDE_GAP_EV = 5;
+export const SHALLOW_DONOR_EV = 0.1;
 export const HIGH_FIELD_V_PER_M = 1e8;
 
 const perSurfaceAtom = (f: WarningFacts): number | null => (f.surfaceAtoms ? Math.abs(f.electronsPerParticle) / f.surfaceAtoms : null);
@@ -217,6 +226,12 @@ export const WARNING_RULES: readonly WarningRule[] = [
       `static permittivity ${f.staticPermittivity.toFixed(0)} used at an interface field of ${Math.abs(f.interfaceField_V_per_m).toExponential(1)} V/m; in SrTiO3-like supports it falls with field` +
       (f.fieldPermittivity !== null ? ` (Devonshire estimate ~${f.fieldPermittivity.toFixed(0)}, Phil. Mag. 40, 1040 (1949))` : '') +
       ': band bending and charge near the interface are overstated',
+  },
+  {
+    code: 'shallow-donors-in-insulator',
+    applies: (f) => f.bandGap_eV > WIDE_GAP_EV && f.donors_m3 > 0 && (f.donorLevel_eV === null || f.donorLevel_eV < SHALLOW_DONOR_EV),
+    message: (f) =>
+      `${f.donorLevel_eV === null ? 'fully ionised' : `${f.donorLevel_eV.toFixed(2)} eV deep`} donors (${(f.donors_m3 * 1e-6).toExponential(1)} cm^-3) in a ${f.bandGap_eV.toFixed(1)} eV-gap insulator: donors there are eV deep (F centres in MgO absorb near 5 eV, Kappers et al., Phys. Rev. B 1, 4151 (1970)); band bending and charge are overstated`,
   },
   {
     code: 'boltzmann-invalid',
