@@ -2,6 +2,7 @@
 // Infinity, the mesh bound, the relaxation exchange time and the plausibility warnings, end to end.
 import { describe, expect, it } from 'vitest';
 import { solveContact } from '../src/contact.js';
+import { loadLibrary } from '../src/materials/load.js';
 import { CODATA2018, tungstenOnSilicon } from './helpers.js';
 
 /** Every number anywhere in a result is finite (issue 10 item 5: no Infinity, no NaN). */
@@ -93,5 +94,30 @@ describe('exchange by relaxation (issue 10 item 3)', () => {
     expect(e.relaxationTime99_s!).toBeLessThan(e.equilibrationTime_s!);
     expect(e.tunnellingEnhancement!).toBeGreaterThanOrEqual(1);
     expect(e.historyTemperature_K).toBeNull();
+  });
+});
+
+describe('library contacts (issue 10 items 3 and 6)', () => {
+  const library = loadLibrary();
+  it('Pt/CeO2 reduced at 773 K: relaxation also computed at the pretreatment temperature, faster there (Arrhenius)', () => {
+    const r = solveContact({ metal: 'Pt', support: 'CeO2', reductionTemperature: '773 K', hydrogenToWater: 100, temperature: '473 K', materials: library });
+    const e = r.exchange!;
+    expect(e.historyTemperature_K).toBe(773);
+    expect(e.historyRelaxationTime99_s!).toBeLessThan(e.relaxationTime99_s!);
+    // slow only when neither temperature reaches 99% of the charge within an hour
+    expect(e.slow).toBe(e.relaxationTime99_s! > 3600 && e.historyRelaxationTime99_s! > 3600);
+  });
+  it('Pt (1.6 nm, ~70 atoms) hemisphere on SrTiO3 with 1e20 donors at 473 K: implausible charge and high-field permittivity flagged', () => {
+    // issue 10 item 6: 179 electrons on a 139-atom Pt particle on SrTiO3 at 473 K passed silently before;
+    // > 1 e per surface atom is unphysical (see PLAUSIBLE/MAX_ELECTRONS_PER_SURFACE_ATOM: Lykhach et al., Nat. Mater.
+    // 15, 284 (2016) count ~0.1 e per Pt atom); SrTiO3's permittivity falls at 1e9 V/m (Devonshire 1949)
+    const r = solveContact({ metal: 'Pt', support: 'SrTiO3', temperature: '473 K', particleDiameter: '1.6 nm', geometry: 'hemisphere', donors: '1e20', materials: library });
+    const codes = r.warnings.map((w) => w.code);
+    expect(r.particle.electronsPerSurfaceAtom!).toBeGreaterThan(1);
+    expect(codes).toContain('unphysical-charge');
+    expect(codes).toContain('field-dependent-permittivity');
+    expect(codes).toContain('image-force-continuum');
+    expect(r.imageForceContinuumValid).toBe(false);
+    expect(r.imageForceMaximum_nm).toBeLessThan(1);
   });
 });
