@@ -9,7 +9,8 @@ import { imageForceLowering_eV, type BarrierResult } from './barrier/barrier.js'
 import type { CrossSection } from './electrostatics/geometry.js';
 import type { PoissonSolution } from './electrostatics/poisson.js';
 import type { ParticleAtomCount, ChargingSummary } from './derived/particle.js';
-import type { EquilibrationTime, ThermionicExchange } from './derived/exchange.js';
+import type { EquilibrationTime, RelaxationTime, ThermionicExchange } from './derived/exchange.js';
+import type { ImageForceCheck } from './electrostatics/permittivity.js';
 import type { ResolvedContact } from './inputs/contactInput.js';
 import { contactCautions } from './output/cautions.js';
 import type { ContactResult, ExchangeInfo, FlowDirection, InterfaceStatesInfo, ParticleInfo, PhotoemissionInfo, Profile, Warning } from './types.js';
@@ -17,7 +18,15 @@ import type { ContactResult, ExchangeInfo, FlowDirection, InterfaceStatesInfo, P
 export interface ExchangeKinetics {
   current: ThermionicExchange;
   time: EquilibrationTime;
+  /** no equilibrium within the threshold at the reaction temperature nor at the history's highest temperature */
   slow: boolean;
+  /** log10 J0 through the computed barrier (thermionic + tunnelling), A/m^2; null when not computable */
+  log10ProfileCurrent_A_per_m2: number | null;
+  tunnellingEnhancement: number | null;
+  /** time to 99% of the equilibrium charge at the reaction temperature */
+  relaxation99: RelaxationTime | null;
+  /** the same at the highest temperature of the history (reduction pretreatment), when above the reaction one */
+  history: { temperature_K: number; time: RelaxationTime } | null;
 }
 
 /** One solved contact and everything derived from it, SI (energies in eV). */
@@ -36,6 +45,8 @@ export interface ContactPhysics {
   electronsPerParticle: number;
   chargeEquivalentWidth_m: number | null;
   depletionWidthApprox_m: number | null;
+  /** depletion approximation in a hemispherical shell (non-planar geometries only) */
+  sphericalDepletionWidth_m: number | null;
   direction: FlowDirection;
   depth90_m: number;
   charging: ChargingSummary;
@@ -45,6 +56,7 @@ export interface ContactPhysics {
   exchange: ExchangeKinetics | null;
   /** interface-states model: the self-consistent alignment (null for the other barrier models) */
   interfaceStates: (InterfaceAlignment & InterfaceStateParameters) | null;
+  imageForce: ImageForceCheck;
 }
 
 const NM_PER_M = 1e9;
@@ -54,6 +66,14 @@ const CM2_PER_M2 = 1e-4;
 /** log10 that stays finite (a time beyond a double is reported as 10^+-308). */
 export function finiteLog10(log10: number): number {
   return Number.isFinite(log10) ? log10 : log10 > 0 ? 308 : -308;
+}
+
+/**
+ * The bulk Debye length when it is a length at all: null where nothing screens (solver null) or where it exceeds
+ * 1 m (e.g. 1e117 m for an undoped 5 eV-gap insulator at 50 K: no sample screens over such a length).
+ */
+export function debyeLengthOrNull(debyeLength_m: number | null): number | null {
+  return debyeLength_m !== null && Number.isFinite(debyeLength_m) && debyeLength_m <= 1 ? debyeLength_m : null;
 }
 
 const nmOrNull = (x_m: number | null): number | null => (x_m === null ? null : x_m * NM_PER_M);
@@ -81,9 +101,14 @@ export function toContactResult(p: ContactPhysics, warnings: Warning[]): Contact
     spaceCharge_C_per_m2: p.spaceCharge_C_per_m2,
     chargeEquivalentWidth_nm: nmOrNull(p.chargeEquivalentWidth_m),
     depletionWidthApprox_nm: nmOrNull(p.depletionWidthApprox_m),
-    debyeLength_nm: solution.firstIntegral.bulkScreening_m * NM_PER_M,
+    depletionWidthApproxIsPlanar: r.geometry !== 'planar',
+    sphericalDepletionWidth_nm: nmOrNull(p.sphericalDepletionWidth_m),
+    ...headlineWidth(p),
+    debyeLength_nm: nmOrNull(debyeLengthOrNull(solution.debyeLength_m)),
     interfaceField_V_per_m: p.interfaceField_V_per_m,
     imageForceLowering_eV: imageForceLowering_eV(p.interfaceField_V_per_m, s.opticalPermittivity),
+    imageForceMaximum_nm: p.imageForce.maximumDistance_m * NM_PER_M,
+    imageForceContinuumValid: p.imageForce.valid,
     electronsPerParticle: p.electronsPerParticle,
     donorDensity_cm3: s.donors_m3 * CM3_PER_M3,
     acceptorDensity_cm3: s.acceptors_m3 * CM3_PER_M3,
@@ -103,11 +128,22 @@ export function toContactResult(p: ContactPhysics, warnings: Warning[]): Contact
       meshPoints: solution.x_m.length,
       domainLength_nm: solution.domain_m * NM_PER_M,
       chargeErrorEstimate: solution.chargeErrorEstimate,
+      chargeErrorBound: solution.chargeErrorBound,
+      meetsTolerance: solution.meetsTolerance,
     },
     warnings,
     cautions: [...r.cautions, ...contactCautions(r.pretreatment.hydrogenToWater !== null)],
     inputs: r.inputs,
   };
+}
+
+/**
+ * The width to quote: planar -> the charge-equivalent width W_Q; hemisphere and array -> the depth (shell thickness)
+ * holding 90% of the charge (issue 10 item 1), since W_Q there depends on the shell shape assumed.
+ */
+function headlineWidth(p: ContactPhysics): Pick<ContactResult, 'width_nm' | 'widthDefinition'> {
+  if (p.r.geometry === 'planar') return { width_nm: nmOrNull(p.chargeEquivalentWidth_m), widthDefinition: 'charge-equivalent' };
+  return { width_nm: p.depth90_m * NM_PER_M, widthDefinition: 'charge-depth-90' };
 }
 
 function bulkInfo(bulk: BulkState): ContactResult['bulk'] {
@@ -185,6 +221,13 @@ function exchangeInfo(e: ExchangeKinetics | null): ExchangeInfo | null {
     equilibrationTime_s: Number.isFinite(e.time.seconds) ? e.time.seconds : null,
     equilibrationTimeLog10_s: finiteLog10(e.time.log10Seconds),
     slow: e.slow,
+    profileExchangeCurrentLog10_A_per_cm2: e.log10ProfileCurrent_A_per_m2 === null ? null : e.log10ProfileCurrent_A_per_m2 - 4,
+    tunnellingEnhancement: e.tunnellingEnhancement,
+    relaxationTime99_s: e.relaxation99 ? e.relaxation99.seconds : null,
+    relaxationTime99Log10_s: e.relaxation99 ? e.relaxation99.log10Seconds : null,
+    historyTemperature_K: e.history?.temperature_K ?? null,
+    historyRelaxationTime99_s: e.history ? e.history.time.seconds : null,
+    historyRelaxationTime99Log10_s: e.history ? e.history.time.log10Seconds : null,
   };
 }
 

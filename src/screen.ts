@@ -20,6 +20,11 @@ export interface ScreenRow {
   supportWorkFunction_eV: number | null;
   metalWorkFunction_eV: number | null;
   donorDensity_cm3: number | null;
+  /**
+   * where this row's donor density came from: 'library' (the support's own typical density), 'user' (the screen's
+   * conditions), 'pretreatment', 'derived' (from a support work function), 'default' (none: 0); null for failed rows
+   */
+  donorSource: string | null;
   /** probability that electrons flow from support to metal (only with uncertainty sampling) */
   probabilitySupportToMetal: number | null;
   warnings: string;
@@ -49,6 +54,7 @@ export const SCREEN_COLUMNS: (keyof ScreenRow)[] = [
   'supportWorkFunction_eV',
   'metalWorkFunction_eV',
   'donorDensity_cm3',
+  'donorSource',
   'probabilitySupportToMetal',
   'warnings',
   'error',
@@ -66,10 +72,22 @@ function rowOf(metal: string, support: string, r: ContactResult | null, error: s
     supportWorkFunction_eV: r?.supportWorkFunction_eV ?? null,
     metalWorkFunction_eV: r?.metalWorkFunction_eV ?? null,
     donorDensity_cm3: r?.donorDensity_cm3 ?? null,
+    donorSource: r ? donorSourceOf(r) : null,
     probabilitySupportToMetal: r?.uncertainty?.directionProbability['support-to-metal'] ?? null,
     warnings: r ? r.warnings.map((w) => w.code).join(' ') : '',
     error,
   };
+}
+
+/**
+ * Where the donor density of a solved contact came from, read off its input provenance: each support gets its own
+ * library density unless the screen's conditions give one (issue 10 item 7).
+ */
+export function donorSourceOf(r: ContactResult): string {
+  const input = r.inputs.find((i) => i.field.startsWith('donor density'));
+  if (input === undefined) return 'default';
+  if (input.field === 'donor density (oxygen vacancies)') return 'pretreatment';
+  return input.origin;
 }
 
 /** Conditions that are a property of one named material would relabel every row: refuse them unless asked. */

@@ -37,6 +37,10 @@ export interface SolverInfo {
    * error of the unextrapolated charge (the reported, extrapolated charge is typically 100x better)
    */
   chargeErrorEstimate: number;
+  /** stated bound on the relative error of the reported charge (= chargeErrorEstimate) */
+  chargeErrorBound: number;
+  /** chargeErrorBound met the solver's tolerance; false raises `mesh-accuracy` */
+  meetsTolerance: boolean;
 }
 
 export interface ParticleInfo {
@@ -61,8 +65,20 @@ export interface ExchangeInfo {
   /** time to build the equilibrium charge by thermionic exchange, s (null when it exceeds a double) */
   equilibrationTime_s: number | null;
   equilibrationTimeLog10_s: number;
-  /** equilibrium would take more than an hour */
+  /** equilibrium (99% of the charge) is reached within an hour neither at the reaction temperature nor at the
+   * highest temperature of the history (before issue 10: |Q|/J0 above an hour) */
   slow: boolean;
+  /** log10 exchange current through the computed barrier (thermionic + tunnelling), A/cm^2 */
+  profileExchangeCurrentLog10_A_per_cm2: number | null;
+  /** profile exchange current / thermionic current (>= 1) */
+  tunnellingEnhancement: number | null;
+  /** time to reach 99% of the equilibrium charge from flat bands at the reaction temperature, s */
+  relaxationTime99_s: number | null;
+  relaxationTime99Log10_s: number | null;
+  /** highest temperature of the history (reduction pretreatment) when above the reaction temperature, K */
+  historyTemperature_K: number | null;
+  historyRelaxationTime99_s: number | null;
+  historyRelaxationTime99Log10_s: number | null;
 }
 
 export interface PretreatmentInfo {
@@ -115,10 +131,23 @@ export interface ContactResult {
   /** signed charge on the support side per interface area, C/m^2 (positive when the support is positive) */
   spaceCharge_C_per_m2: number;
   chargeEquivalentWidth_nm: number | null;
+  /** planar depletion approximation sqrt(2 eps (|V_bb| - kT/q) / (q |Z N_D - N_A|)) */
   depletionWidthApprox_nm: number | null;
-  debyeLength_nm: number;
+  /** true when depletionWidthApprox_nm is the planar formula applied to a curved (hemisphere/array) geometry */
+  depletionWidthApproxIsPlanar: boolean;
+  /** depletion approximation in a hemispherical shell around the particle (non-planar geometries), nm */
+  sphericalDepletionWidth_nm: number | null;
+  /** headline width: charge-equivalent width (planar) or depth holding 90% of the charge (hemisphere, array), nm */
+  width_nm: number | null;
+  widthDefinition: 'charge-equivalent' | 'charge-depth-90';
+  /** bulk Debye length; null where it is undefined (nothing screens), with a `debye-undefined` warning */
+  debyeLength_nm: number | null;
   interfaceField_V_per_m: number;
   imageForceLowering_eV: number;
+  /** distance of the image-force barrier maximum from the metal, nm */
+  imageForceMaximum_nm: number;
+  /** false when that maximum lies within ~1 nm of the metal (continuum image force doubtful) */
+  imageForceContinuumValid: boolean;
   /** electrons gained by the metal particle (negative when it loses them) */
   electronsPerParticle: number;
   donorDensity_cm3: number;

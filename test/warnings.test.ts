@@ -37,7 +37,25 @@ describe('warning rules', () => {
     ['charge-quantised', { chargingEnergyOverKT: 2, chargingEnergy_eV: 0.05 }],
     ['zones-overlap', { zonesOverlap: true, meanSpacing_m: 8e-9 }],
     ['slow-exchange', { exchangeSlow: true, equilibrationTimeLog10_s: 5 }],
-    ['mesh-accuracy', { chargeErrorEstimate: 1e-2 }],
+    // the solver's own stated bound (src/electrostatics/poisson.ts, checked against the exact planar first integral
+    // in test/errorControl.test.ts): the warning fires exactly when the bound missed the tolerance
+    ['mesh-accuracy', { meetsTolerance: false, chargeErrorBound: 3e-4 }],
+    // Debye length undefined when nothing screens (issue 10 item 5: Infinity before for undoped insulators < 75 K)
+    ['debye-undefined', { debyeLength_m: null }],
+    // ~0.1 e per Pt atom by photoemission electron counting, from memory of Lykhach et al., Nat. Mater. 15, 284
+    // (2016), verify: 0.5 per surface atom is 5x that
+    ['implausible-charge', { electronsPerParticle: 75, atoms: 300, surfaceAtoms: 150 }],
+    // issue 10 item 6: 179 electrons on a 139-atom Pt particle (about 2 per surface atom) is unphysical
+    ['unphysical-charge', { electronsPerParticle: 179, atoms: 139, surfaceAtoms: 90 }],
+    // image-force maximum x_m = sqrt(q / (16 pi eps_opt eps0 E)) (Sze & Ng, 3rd ed., ch. 3) at 0.3 nm: continuum doubtful
+    ['image-force-continuum', { imageForceValid: false, imageForceMaximum_m: 0.3e-9 }],
+    // SrTiO3 permittivity falls with field (Devonshire, Phil. Mag. 40, 1040 (1949), from memory, verify)
+    ['field-dependent-permittivity', { staticPermittivity: 300, interfaceField_V_per_m: 1e9, fieldPermittivity: 40 }],
+    // F centres in MgO absorb near 5 eV (Kappers, Kroes & Hensley, Phys. Rev. B 1, 4151 (1970), from memory, verify):
+    // donors in a 7.8 eV-gap oxide are eV deep, not shallow and fully ionised
+    ['shallow-donors-in-insulator', { bandGap_eV: 7.8, donors_m3: 1e24, donorLevel_eV: null }],
+    // Boltzmann valid only 3 kT or more from a band edge (Sze & Ng, 3rd ed., sec. 1.4.1): degenerate at the interface
+    ['boltzmann-invalid', { statistics: 'boltzmann', interfaceReducedFermiLevel: 2, bandBending_eV: -0.3, depth90_m: 2e-9 }],
     ['estimated-input', { estimatedInputs: ['electron affinity'] }],
     ['unverified-input', { unverifiedInputs: ['band gap'] }],
   ];
@@ -60,5 +78,24 @@ describe('warning rules', () => {
     expect(fullyDepleted(warningFacts({ supportThickness_m: 5e-9, endMajority_m3: 0.9e23 }))).toBe(false);
     expect(fullyDepleted(warningFacts({ supportThickness_m: 5e-9, endMajority_m3: 0.1e23 }))).toBe(true);
     expect(fullyDepleted(warningFacts({ supportThickness_m: 5e-9, endMajority_m3: 0.1e23, bandBending_eV: -0.2 }))).toBe(false);
+    // issue 10 item 1: a 26 nm layer in a 200 nm grain with a weak Debye tail to the far end is not fully depleted
+    expect(fullyDepleted(warningFacts({ supportThickness_m: 200e-9, endMajority_m3: 0.1e23, depth90_m: 26e-9 }))).toBe(false);
+  });
+  it('boltzmann-invalid stays quiet under Fermi-Dirac statistics and for a non-degenerate Boltzmann contact', () => {
+    expect(codes({ statistics: 'fermi-dirac', interfaceReducedFermiLevel: 2, bandBending_eV: -0.3, depth90_m: 2e-9 })).toEqual([]);
+    expect(codes({ statistics: 'boltzmann' })).toEqual([]);
+  });
+  it('plausibility thresholds: 0.3 per surface atom is quiet, 1.0 implausible, above 1 unphysical only', () => {
+    expect(codes({ electronsPerParticle: 45, surfaceAtoms: 150 })).toEqual([]);
+    expect(codes({ electronsPerParticle: 150, surfaceAtoms: 150 })).toEqual(['implausible-charge']);
+    expect(codes({ electronsPerParticle: -151, surfaceAtoms: 150 })).toEqual(['unphysical-charge']);
+  });
+  it('deep donors in a wide-gap oxide, or shallow ones in a 3.2 eV-gap oxide, raise no shallow-donor warning', () => {
+    expect(codes({ bandGap_eV: 7.8, donorLevel_eV: 2 })).toEqual([]);
+    expect(codes({ bandGap_eV: 3.2, donorLevel_eV: null })).toEqual([]);
+  });
+  it('the permittivity warning needs both a high permittivity and a high field', () => {
+    expect(codes({ staticPermittivity: 300, interfaceField_V_per_m: 1e7 })).toEqual([]);
+    expect(codes({ staticPermittivity: 30, interfaceField_V_per_m: 1e9 })).toEqual([]);
   });
 });

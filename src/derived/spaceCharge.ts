@@ -21,6 +21,8 @@ export function electronsPerParticle(totalCharge_C: number, geometry: CrossSecti
 }
 
 /**
+ * @deprecated the contact pipeline uses derived/widths.ts (density |Z N_D - N_A| with every dopant ionised, issue 10
+ * item 1); this form with the bulk ionised density overstates the width for deep donors.
  * Charge-equivalent width: the depth of a layer of fully ionised majority dopants holding the space charge,
  * W_Q = depth holding the volume |Q| / (q N), m; null without majority dopants.
  */
@@ -30,6 +32,7 @@ export function chargeEquivalentWidth_m(totalCharge_C: number, majorityDopantCha
 }
 
 /**
+ * @deprecated the contact pipeline uses derived/widths.ts depletionWidthApprox_m (fully ionised density).
  * Depletion approximation W = sqrt(2 eps (V_bi - kT/q) / (q N)) (Sze & Ng, Physics of Semiconductor Devices, 3rd ed.,
  * eq. 3.9), m; null unless the majority carriers are depleted by more than kT.
  */
