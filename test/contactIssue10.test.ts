@@ -111,8 +111,13 @@ describe('library contacts (issue 10 items 3 and 6)', () => {
     // issue 10 item 6: 179 electrons on a 139-atom Pt particle on SrTiO3 at 473 K passed silently before;
     // > 1 e per surface atom is unphysical (see PLAUSIBLE/MAX_ELECTRONS_PER_SURFACE_ATOM: Lykhach et al., Nat. Mater.
     // 15, 284 (2016) count ~0.1 e per Pt atom); SrTiO3's permittivity falls at 1e9 V/m (Devonshire 1949)
-    const r = solveContact({ metal: 'Pt', support: 'SrTiO3', temperature: '473 K', particleDiameter: '1.6 nm', geometry: 'hemisphere', donors: '1e20', materials: library });
+    // the ideal (Schottky–Mott) model reproduces the implausible case; the warnings must flag it
+    const r = solveContact({ metal: 'Pt', support: 'SrTiO3', temperature: '473 K', particleDiameter: '1.6 nm', geometry: 'hemisphere', donors: '1e20', barrierModel: 'ideal', materials: library });
     const codes = r.warnings.map((w) => w.code);
+    // with the library default (interface states, issue 11) the same particle carries a plausible charge
+    const defaults = solveContact({ metal: 'Pt', support: 'SrTiO3', temperature: '473 K', particleDiameter: '1.6 nm', geometry: 'hemisphere', donors: '1e20', materials: library });
+    expect(defaults.barrierModel).toBe('interface-states');
+    expect(Math.abs(defaults.particle.electronsPerSurfaceAtom!)).toBeLessThan(0.3);
     expect(r.particle.electronsPerSurfaceAtom!).toBeGreaterThan(1);
     expect(codes).toContain('unphysical-charge');
     expect(codes).toContain('field-dependent-permittivity');
