@@ -108,6 +108,9 @@ function depletionFixture(over: Partial<FixtureParams> = {}): ContactResult {
     electronsPerParticle: (spaceCharge * area_m2) / Q,
     donorDensity_cm3: p.donors_cm3,
     pinningFactor: null,
+    particleWorkFunction_eV: 5.1,
+    interfaceStates: null,
+    photoemission: { observedBandBending_eV: 0.5, inelasticMeanFreePath_nm: 2.5, photonEnergy_eV: 1486.6, coreLevel: 'O 1s', emissionAngle_deg: 0 },
     chargeDepth90_nm: 0.9 * w_nm, // uniform depletion charge: 90% lies within 0.9 W
     supportFullyDepleted: false,
     acceptorDensity_cm3: 0,
@@ -119,6 +122,7 @@ function depletionFixture(over: Partial<FixtureParams> = {}): ContactResult {
       conductionDensityOfStates_cm3: nc,
       valenceDensityOfStates_cm3: nc,
       intrinsicDensityLog10_cm3: -5.2,
+      localisedElectrons_cm3: 0,
     },
     particle: {
       diameter_nm: p.diameter_nm,
