@@ -32,6 +32,7 @@ import {
   chargeDepth_m,
   electronsPerParticle,
   flowDirection,
+  flowDirectionOfCharge,
   interfaceField_V_per_m,
   spaceChargeDensity_C_per_m2,
 } from './derived/spaceCharge.js';
@@ -215,7 +216,11 @@ function derivePhysics(c: SolvedContact): ContactPhysics {
     chargeEquivalentWidth_m: chargeEquivalentWidth_m({ ...dopants, charge_C: solution.totalCharge_C, geometry }),
     depletionWidthApprox_m: depletionWidthApprox_m(depletion),
     sphericalDepletionWidth_m: geometry.kind === 'planar' ? null : sphericalDepletionWidth_m({ ...depletion, radius_m: r.particleDiameter_m / 2 }),
-    direction: flowDirection(c.bandBending_eV, solution.totalCharge_C),
+    // with interface states the metal's charge is -(Q_sc + Q_it): the direction follows it, not the band bending alone
+    direction:
+      c.interfaceStates === null
+        ? flowDirection(c.bandBending_eV, solution.totalCharge_C)
+        : flowDirectionOfCharge(solution.totalCharge_C + interfaceStateCharge_C(c)),
     depth90_m,
     charging: chargingSummary({ radius_m: r.particleDiameter_m / 2, permittivityRelative: effectivePermittivity(r.support.permittivity), temperature_K: r.temperature_K }),
     atoms,

@@ -55,6 +55,10 @@ describe('interface-states barrier model in the pipeline', () => {
     const i = r.interfaceStates!;
     expect(r.electronsPerParticle).toBeCloseTo(i.electronsFromInterfaceStates + i.electronsFromSpaceCharge, 9);
     expect(i.interfaceStateCharge_C_per_m2 + i.metalCharge_C_per_m2 + r.spaceCharge_C_per_m2).toBeCloseTo(0, 9);
+    // the reported direction follows the particle's total charge (here: accumulation in the support, but the
+    // interface states give the metal more)
+    const cu = solveContact({ metal: 'Cu', support: 'ZnO', reductionTemperature: '573 K', hydrogenToWater: 100, temperature: '523 K' });
+    expect(cu.direction).toBe(cu.electronsPerParticle > 0 ? 'support-to-metal' : 'metal-to-support');
   });
 
   it('is the default where the library has a charge-neutrality level, and ideal otherwise (library data: Robertson 2000, from memory)', () => {

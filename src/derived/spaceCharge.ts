@@ -54,6 +54,12 @@ export function flowDirection(bandBending_eV: number, totalCharge_C: number): Fl
   return totalCharge_C > 0 ? 'support-to-metal' : 'metal-to-support';
 }
 
+/** Direction from the charge the metal's partners hold (space charge plus interface states), C: electrons follow it. */
+export function flowDirectionOfCharge(supportSideCharge_C: number): FlowDirection {
+  if (supportSideCharge_C === 0) return 'none';
+  return supportSideCharge_C > 0 ? 'support-to-metal' : 'metal-to-support';
+}
+
 /** Depth from the interface that holds the given fraction of the space charge, m (trapezoidal cumulative charge). */
 export function chargeDepth_m(solution: PoissonSolution, geometry: CrossSection, fraction: number): number {
   const x = solution.x_m;
