@@ -6,6 +6,8 @@ import { resolveContact, type ContactOptions, type ResolvedContact } from './inp
 import { makeChargeModel, solveBulkNeutrality, type ChargeModel } from './bulk/equilibrium.js';
 import { barrierHeight, empiricalPinningFactor, type BarrierResult } from './barrier/barrier.js';
 import {
+  DEFAULT_INTERFACE_LAYER_PERMITTIVITY,
+  DEFAULT_INTERFACE_LAYER_THICKNESS_M,
   interfaceStateDensityFromSlope,
   solveInterfaceAlignment,
   type InterfaceAlignment,
@@ -14,7 +16,7 @@ import {
 import { PLANAR, hemisphere, particleArray, type CrossSection } from './electrostatics/geometry.js';
 import { solvePoisson, REFINE_ABOVE, type PoissonSolution } from './electrostatics/poisson.js';
 import { particleDensityOfStates_per_eV, particleWorkFunction_eV } from './derived/finiteParticle.js';
-import { particleAtoms, chargingSummary, effectivePermittivity, meanSpacing_m } from './derived/particle.js';
+import { particleAtoms, chargingSummary, effectivePermittivity, meanSpacing_m, type ParticleAtomCount } from './derived/particle.js';
 import {
   thermionicExchangeCurrent_A_per_m2,
   equilibrationTime_s,
@@ -97,8 +99,8 @@ function chargeModelOf(r: ResolvedContact): ChargeModel {
 /** Interface-state parameters: D_it given, or from the slope S (given or library, else empirical) and the layer. */
 export function interfaceParametersOf(r: ResolvedContact): InterfaceStateParameters & { pinningFactorOrigin: 'given' | 'empirical' | 'states' } {
   const s = r.support;
-  const layerThickness_m = s.interfaceLayerThickness_m ?? 0.5e-9;
-  const layerPermittivity = s.interfaceLayerPermittivity ?? 1;
+  const layerThickness_m = s.interfaceLayerThickness_m ?? DEFAULT_INTERFACE_LAYER_THICKNESS_M;
+  const layerPermittivity = s.interfaceLayerPermittivity ?? DEFAULT_INTERFACE_LAYER_PERMITTIVITY;
   const neutralLevelAboveValence_eV = s.neutralLevelAboveValence_eV!;
   if (s.interfaceStateDensity_per_eV_m2 !== undefined) {
     return { stateDensity_per_eV_m2: s.interfaceStateDensity_per_eV_m2, neutralLevelAboveValence_eV, layerThickness_m, layerPermittivity, pinningFactorOrigin: 'states' };
@@ -199,20 +201,17 @@ function derivePhysics(c: SolvedContact): ContactPhysics {
   const dopants = { donors_m3: s.donors_m3, donorKind: s.donorKind, acceptors_m3: s.acceptors_m3 };
   const depletion = { ...dopants, bandBending_eV: c.bandBending_eV, kT_eV: kT, relativePermittivity: s.permittivity, nType };
   const spaceCharge = spaceChargeDensity_C_per_m2(solution.totalCharge_C, geometry);
-  const m = r.metal;
-  const atoms =
-    m.density_g_cm3 !== undefined && m.molarMass_g_mol !== undefined && m.metallicRadius_pm !== undefined
-      ? particleAtoms({ diameter_m: r.particleDiameter_m, density_g_cm3: m.density_g_cm3, molarMass_g_mol: m.molarMass_g_mol, metallicRadius_pm: m.metallicRadius_pm })
-      : null;
+  // the metal's charge balances the space charge and the interface states under it: -(Q_sc + Q_it)
+  const partnerCharge_C = solution.totalCharge_C + interfaceStateCharge_C(c);
+  const field_V_per_m = interfaceField_V_per_m(kT, solution.interfaceSlope_per_m);
   const depth90_m = chargeDepth_m(solution, geometry, 0.9);
   const meanSpacing = r.particleDensity_m2 !== undefined ? meanSpacing_m(r.particleDensity_m2) : null;
   return {
     ...c,
     kT_eV: kT,
     spaceCharge_C_per_m2: spaceCharge,
-    interfaceField_V_per_m: interfaceField_V_per_m(kT, solution.interfaceSlope_per_m),
-    // the metal's charge balances the space charge and the interface states under it: -(Q_sc + Q_it)
-    electronsPerParticle: electronsPerParticle(solution.totalCharge_C + interfaceStateCharge_C(c), geometry),
+    interfaceField_V_per_m: field_V_per_m,
+    electronsPerParticle: electronsPerParticle(partnerCharge_C, geometry),
     chargeEquivalentWidth_m: chargeEquivalentWidth_m({ ...dopants, charge_C: solution.totalCharge_C, geometry }),
     depletionWidthApprox_m: depletionWidthApprox_m(depletion),
     sphericalDepletionWidth_m: geometry.kind === 'planar' ? null : sphericalDepletionWidth_m({ ...depletion, radius_m: r.particleDiameter_m / 2 }),
@@ -220,26 +219,32 @@ function derivePhysics(c: SolvedContact): ContactPhysics {
     direction:
       c.interfaceStates === null
         ? flowDirection(c.bandBending_eV, solution.totalCharge_C)
-        : flowDirectionOfCharge(solution.totalCharge_C + interfaceStateCharge_C(c)),
+        : flowDirectionOfCharge(partnerCharge_C),
     depth90_m,
     charging: chargingSummary({ radius_m: r.particleDiameter_m / 2, permittivityRelative: effectivePermittivity(r.support.permittivity), temperature_K: r.temperature_K }),
-    atoms,
+    atoms: particleAtomsOf(r),
     meanSpacing_m: meanSpacing,
     // neighbouring layers meet when the charge reaches half-way to the next particle
     zonesOverlap: meanSpacing !== null ? depth90_m > meanSpacing / 2 : null,
     exchange: exchangeKinetics(c, spaceCharge),
-    imageForce: imageForceValidity(clamp(interfaceField_V_per_m(kT, solution.interfaceSlope_per_m), 1e12), clamp(s.opticalPermittivity, 1e3)),
+    imageForce: imageForceValidity(clamp(field_V_per_m, 1e12), clamp(s.opticalPermittivity, 1e3)),
   };
+}
+
+/** Atoms of the particle, when the metal's density, molar mass and metallic radius are known. */
+function particleAtomsOf(r: ResolvedContact): ParticleAtomCount | null {
+  const m = r.metal;
+  if (m.density_g_cm3 === undefined || m.molarMass_g_mol === undefined || m.metallicRadius_pm === undefined) return null;
+  return particleAtoms({ diameter_m: r.particleDiameter_m, density_g_cm3: m.density_g_cm3, molarMass_g_mol: m.molarMass_g_mol, metallicRadius_pm: m.metallicRadius_pm });
 }
 
 /** The particle's finite density of states (quantum capacitance) in the alignment, when the library has it. */
 function finiteParticleTerm(r: ResolvedContact, geometry: CrossSection) {
-  const m = r.metal;
-  if (r.geometry === 'planar' || m.densityOfStates_per_eV_atom === undefined) return undefined;
-  if (m.density_g_cm3 === undefined || m.molarMass_g_mol === undefined || m.metallicRadius_pm === undefined) return undefined;
-  const atoms = particleAtoms({ diameter_m: r.particleDiameter_m, density_g_cm3: m.density_g_cm3, molarMass_g_mol: m.molarMass_g_mol, metallicRadius_pm: m.metallicRadius_pm });
+  const perAtom = r.metal.densityOfStates_per_eV_atom;
+  const atoms = r.geometry === 'planar' || perAtom === undefined ? null : particleAtomsOf(r);
+  if (atoms === null) return undefined;
   return {
-    densityOfStates_per_eV: particleDensityOfStates_per_eV(m.densityOfStates_per_eV_atom, atoms.atoms),
+    densityOfStates_per_eV: particleDensityOfStates_per_eV(perAtom!, atoms.atoms),
     footprintArea_m2: geometry.interfaceArea_m2,
     interfaceArea_m2: geometry.interfaceArea_m2,
   };

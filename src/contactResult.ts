@@ -185,11 +185,9 @@ const OXIDE_MONOLAYER_M = 0.22e-9;
 
 function photoemissionInfo(p: ContactPhysics): PhotoemissionInfo {
   const imfp_m = seahDenchImfpCompound_m(PHOTON_ENERGY_EV - O1S_BINDING_EV, OXIDE_MONOLAYER_M);
-  const kT = p.kT_eV;
-  const x_m = Array.from(p.solution.x_m);
-  const bending = Array.from(p.solution.u, (u) => u * kT);
   return {
-    observedBandBending_eV: observedBandBending_eV(x_m, bending, imfp_m, 0),
+    // the average is linear in the profile: average u = (E_C - E_C,bulk)/kT on the solver's mesh, then scale by kT
+    observedBandBending_eV: p.kT_eV * observedBandBending_eV(p.solution.x_m, p.solution.u, imfp_m, 0),
     inelasticMeanFreePath_nm: imfp_m * NM_PER_M,
     photonEnergy_eV: PHOTON_ENERGY_EV,
     coreLevel: 'O 1s',

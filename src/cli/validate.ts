@@ -78,7 +78,7 @@ function statisticsTable(runs: readonly ModelRun[], num: (x: number | null) => s
 async function runValidate(opts: Record<string, unknown>): Promise<void> {
   const models = checkModels(opts['model']);
   const report = typeof opts['report'] === 'string' ? opts['report'] : undefined;
-  const [{ runValidation }, { solveContact }] = await Promise.all([import('../validation/gallery.js'), import('../contact.js')]);
+  const { runValidation } = await import('../validation/gallery.js');
   // refuse an existing non-empty report folder before any work is done
   if (report !== undefined) {
     const { prepareReportDir } = await import('../output/report.js');
@@ -89,13 +89,8 @@ async function runValidate(opts: Record<string, unknown>): Promise<void> {
     if (model !== DEFAULT_MODEL) {
       return { model, barrierModel: model, result: runValidation({ model: model as BarrierModel, includeUnverified }) };
     }
-    // leave barrierModel unset so the library default applies; the statistics carry the model it resolves to
-    const solve = (o: Record<string, unknown>): unknown => {
-      const { barrierModel: _unset, ...rest } = o;
-      return solveContact(rest as Parameters<typeof solveContact>[0]);
-    };
-    const resolved = (defaultModelValue() ?? DEFAULT_MODEL) as BarrierModel;
-    return { model, barrierModel: null, result: runValidation({ model: resolved, solve, includeUnverified }) };
+    // 'default' leaves barrierModel unset in every contact (src/validation/gallery.ts), so the library default applies
+    return { model, barrierModel: null, result: runValidation({ model: DEFAULT_MODEL, includeUnverified }) };
   });
 
   let written: string[] = [];

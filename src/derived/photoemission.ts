@@ -50,8 +50,8 @@ export function seahDenchImfpCompound_m(kineticEnergy_eV: number, monolayer_m: n
  * from the surface cost no accuracy), constant u[0] between 0 and x[0], and the bulk value 0 beyond the mesh.
  */
 export function observedBandBending_eV(
-  x_m: readonly number[],
-  bandBending_eV: readonly number[],
+  x_m: ArrayLike<number>,
+  bandBending_eV: ArrayLike<number>,
   imfp_m: number,
   emissionAngle_deg: number,
 ): number {

@@ -21,6 +21,7 @@
 // Adding a numeric input: add the field (with @default) to ContactOptions, add its row, and use its SI value
 // (`values.get('yourOption')`) in the physics. Flag, help, study field, limits, provenance and sampling follow.
 import { requireInRange } from '../errors.js';
+import { DEFAULT_INTERFACE_LAYER_PERMITTIVITY, DEFAULT_INTERFACE_LAYER_THICKNESS_M } from '../interface/interfaceStates.js';
 import type { MetalRecord, PropertyValue, SupportRecord } from '../materials/types.js';
 import type { MaterialsLibrary } from '../materials/types.js';
 import type { QuantityInput, QuantityKind } from './units.js';
@@ -360,13 +361,13 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
   interfaceLayerThickness: {
     flag: '--interface-layer-thickness <L>', help: 'interfacial layer thickness (nm if bare)', defaultText: 'library value, else 0.5 nm',
     kind: 'quantity', quantity: 'length', limits: [0, 10e-9], label: 'interfacial layer thickness', library: (r) => r.support?.interfaceLayerThickness_nm,
-    fallback: { value: 0.5e-9, note: 'Cowley & Sze (1965) / Sze & Ng sec. 3.2 interfacial-layer thickness (from memory, verify)' },
+    fallback: { value: DEFAULT_INTERFACE_LAYER_THICKNESS_M, note: 'Cowley & Sze (1965) / Sze & Ng sec. 3.2 interfacial-layer thickness (from memory, verify)' },
     when: INTERFACE_STATES,
   },
   interfaceLayerPermittivity: {
     flag: '--interface-layer-permittivity <ER>', help: 'interfacial layer relative permittivity', defaultText: 'library value, else 1',
     ...plain([1, 1000]), label: 'interfacial layer permittivity', library: (r) => r.support?.interfaceLayerPermittivity,
-    fallback: { value: 1, note: 'vacuum-like gap of Cowley & Sze (1965) (from memory, verify)' },
+    fallback: { value: DEFAULT_INTERFACE_LAYER_PERMITTIVITY, note: 'vacuum-like gap of Cowley & Sze (1965) (from memory, verify)' },
     when: INTERFACE_STATES,
   },
   localisedSites: {
