@@ -7,6 +7,7 @@ import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, 
 import { hostname, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parseCsvLine } from './helpers.js';
+import { seededRandom } from '../src/derived/uncertainty.js';
 
 const BIN = join(process.cwd(), 'bin', 'bandbend.js');
 
@@ -66,17 +67,8 @@ function expectCompleteLines(dir: string): number {
   return jsonLines.length;
 }
 
-/** Deterministic pseudo-random numbers (mulberry32, common practice, no source needed for a test seed). */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Deterministic pseudo-random numbers: the project's seeded mulberry32 (src/derived/uncertainty.ts). */
+const rng = seededRandom;
 
 beforeAll(() => {
   work = mkdtempSync(join(tmpdir(), 'bandbend-resume-'));

@@ -2,17 +2,10 @@
 // Written for the tests; the generator is mulberry32 (public-domain 32-bit PRNG by T. Ettinger), so a seed
 // always gives the same cases on every machine.
 import { makeChargeModel, solveBulkNeutrality, type SupportElectronic } from '../../src/bulk/equilibrium.js';
+import { seededRandom } from '../../src/derived/uncertainty.js';
 
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** mulberry32, the same generator the uncertainty sampling uses (src/derived/uncertainty.ts). */
+export const mulberry32: (seed: number) => () => number = seededRandom;
 
 export interface RandomCase {
   index: number;
