@@ -2,7 +2,7 @@
 // inputs -> materials -> bulk equilibrium -> barrier -> electrostatics -> derived results.
 import { InputError } from './errors.js';
 import { propagateUncertainty } from './derived/uncertainty.js';
-import { resolveContact, type ContactOptions, type ResolvedContact } from './inputs/contactInput.js';
+import { resolveContact, withVacancyDonors, type ContactOptions, type ResolvedContact } from './inputs/contactInput.js';
 import { makeChargeModel, solveBulkNeutrality, type ChargeModel } from './bulk/equilibrium.js';
 import { barrierHeight, empiricalPinningFactor, type BarrierResult } from './barrier/barrier.js';
 import {
@@ -118,7 +118,8 @@ export function interfaceParametersOf(r: ResolvedContact): InterfaceStateParamet
 }
 
 /** Solve one contact from resolved SI inputs (used by studies and uncertainty sampling). */
-export function solveResolved(r: ResolvedContact): ContactResult {
+export function solveResolved(resolved: ResolvedContact): ContactResult {
+  const r = withVacancyDonors(resolved); // a sampled reduction enthalpy/entropy changes the vacancy donors
   const s = r.support;
   const model = chargeModelOf(r);
   const bulk = solveBulkNeutrality(model);

@@ -121,6 +121,7 @@ export function toContactResult(p: ContactPhysics, warnings: Warning[]): Contact
     particle: particleInfo(p),
     exchange: exchangeInfo(p.exchange),
     pretreatment: r.pretreatment,
+    defects: r.defects,
     profile: profileOf(p),
     solver: {
       converged: true,
@@ -132,7 +133,7 @@ export function toContactResult(p: ContactPhysics, warnings: Warning[]): Contact
       meetsTolerance: solution.meetsTolerance,
     },
     warnings,
-    cautions: [...r.cautions, ...contactCautions(r.pretreatment.hydrogenToWater !== null)],
+    cautions: [...r.cautions, ...contactCautions(r.pretreatment.hydrogenToWater !== null || r.defects.reactionGas === 'H2/H2O')],
     inputs: r.inputs,
   };
 }

@@ -91,6 +91,30 @@ export interface PretreatmentInfo {
   equilibrationTemperature_K: number | null;
 }
 
+/** Oxygen vacancies of the support in the reaction atmosphere at the reaction temperature. */
+export interface DefectsInfo {
+  /** 'none' without a reaction gas (the donors are given, from the library, or from a reduction alone) */
+  history: 'none' | 'frozen' | 'equilibrated' | 'kinetic';
+  /** 'O2', 'H2/H2O' or 'CO/CO2'; null without a reaction gas */
+  reactionGas: string | null;
+  /** the given pO2 or the pH2/pH2O or pCO/pCO2 ratio */
+  reactionGasValue: number | null;
+  /** equilibrium pO2 of the reaction gas at the reaction temperature, bar (NIST-JANAF gas equilibria) */
+  oxygenPartialPressure_bar: number | null;
+  log10OxygenPartialPressure_bar: number | null;
+  /** vacancies during the reaction (the double-donor density used), cm^-3 */
+  vacancies_cm3: number | null;
+  /** vacancies in equilibrium with the reaction gas at the reaction temperature, cm^-3 */
+  equilibriumVacancies_cm3: number | null;
+  /** grain^2 / D at the reaction temperature, s; null where no diffusion coefficient is published or given */
+  reequilibrationTime_s: number | null;
+  /** mean approach to the reaction-gas equilibrium over the time on stream; null without D or time */
+  equilibratedFraction: number | null;
+  timeOnStream_s: number | null;
+  grainSize_nm: number | null;
+  notes: string[];
+}
+
 export interface UncertaintySummary {
   samples: number;
   seed: number;
@@ -179,6 +203,8 @@ export interface ContactResult {
   particle: ParticleInfo;
   exchange: ExchangeInfo | null;
   pretreatment: PretreatmentInfo;
+  /** oxygen vacancies in the reaction atmosphere (issue 12); history 'none' and nulls without a reaction gas */
+  defects: DefectsInfo;
   profile: Profile;
   solver: SolverInfo;
   warnings: Warning[];

@@ -8,6 +8,8 @@ import { donorsForFermiLevel } from '../derived/fermiLevel.js';
 import { formatNumber } from '../output/format.js';
 import { parseQuantity } from './units.js';
 import { frozenInDonorDensity, oxygenPressureFromHydrogenWater, vacancyDonorDensity } from './pretreatment.js';
+import { vacanciesOfSource, type AtmosphereDefects, type VacancyHistoryChoice, type VacancySource } from '../bulk/atmosphere.js';
+import type { ReactionGas } from '../bulk/defectChemistry.js';
 import {
   PARAMETERS,
   OPTION_NAMES,
@@ -17,6 +19,8 @@ import {
   flagName,
   fromDisplay,
   hasPretreatment,
+  hasReactionGas,
+  hasReductionGas,
   row,
   toDisplay,
   type ContactOptions,
@@ -26,7 +30,7 @@ import {
   type RowContext,
   type SampledField,
 } from './parameters.js';
-import type { BarrierModel, GeometryKind, PretreatmentInfo, Statistics } from '../types.js';
+import type { BarrierModel, DefectsInfo, GeometryKind, PretreatmentInfo, Statistics } from '../types.js';
 import type { DonorKind } from '../bulk/equilibrium.js';
 
 export type { ContactOptions } from './parameters.js';
@@ -56,6 +60,9 @@ export interface ResolvedSupport {
   /** localised (small-polaron) electron sites per m^3 and their depth below E_C, eV */
   localisedSites_m3: number | undefined;
   localisedLevel_eV: number | undefined;
+  /** reduction enthalpy (eV) and entropy (k_B) per vacancy, when a reduction or reaction gas sets the donors */
+  reductionEnthalpy_eV?: number | undefined;
+  reductionEntropy_kB?: number | undefined;
 }
 
 export interface ResolvedMetal {
@@ -86,6 +93,10 @@ export interface ResolvedContact {
   uncertaintySamples: number;
   seed: number;
   pretreatment: PretreatmentInfo;
+  /** oxygen vacancies in the reaction atmosphere (history 'none' without a reaction gas) */
+  defects: DefectsInfo;
+  /** where the vacancy donors come from, with the nominal reduction enthalpy and entropy (null: donors not from a gas) */
+  vacancySource: { source: VacancySource; enthalpy_eV: number; entropy_kB: number } | null;
   inputs: InputProvenance[];
   cautions: string[];
   /** materials the sampling in uncertainty studies may vary: field -> [min, max] in SI */
@@ -103,6 +114,9 @@ class Resolution implements RowContext {
   readonly ranges = new Map<SampledField, [number, number]>();
   /** set when a reduction pretreatment gave the donors */
   pretreatment: PretreatmentInfo | undefined;
+  /** set when a reduction or a reaction gas gave the donors */
+  vacancySource: ResolvedContact['vacancySource'] = null;
+  defects: DefectsInfo | undefined;
   constructor(
     readonly options: ContactOptions,
     readonly lib: MaterialsLibrary,
@@ -122,7 +136,7 @@ class Resolution implements RowContext {
 /** Inputs computed from others when the user does not give them (tried before the library value). */
 const DERIVED: Partial<Record<OptionName, (c: Resolution) => number | undefined>> = {
   electronAffinity: electronAffinityFromFormula,
-  donors: (c) => (hasPretreatment(c) ? pretreatmentDonors(c) : undefined),
+  donors: (c) => (hasReactionGas(c) ? atmosphereDonors(c) : hasReductionGas(c) ? pretreatmentDonors(c) : undefined),
 };
 
 /** Refusals that need several options at once (the single-option ones are the `when` of each row). */
@@ -132,6 +146,26 @@ const CROSS_RULES: { option: OptionName; refuse: (o: ContactOptions, c: Resoluti
     refuse: (o, c) => o.donors !== undefined && hasPretreatment(c),
     message: 'cannot be combined with a pretreatment (the pretreatment sets the donor density)',
     allowed: 'either --donors or reduction conditions',
+  },
+  {
+    option: 'reactionMonoxideToDioxide',
+    refuse: (_o, c) => hasReactionGas(c) && hasReductionGas(c) && !c.given('reductionTemperature'),
+    message: 'a reduction gas and a reaction gas at the same temperature: give --reduction-temperature for the reduction',
+    allowed: '--reduction-temperature T with --oxygen-pressure / --hydrogen-to-water, or the reaction gas alone',
+  },
+  {
+    option: 'timeOnStream',
+    refuse: (o, c) => c.value('vacancyHistory') === 'kinetic' && o.timeOnStream === undefined,
+    message: 'missing',
+    allowed: 'the kinetic vacancy history needs a time on stream, e.g. "5 h"',
+  },
+  {
+    option: 'oxygenDiffusionActivation',
+    refuse: (_o, c) =>
+      (c.value('vacancyHistory') === 'kinetic' && c.value('oxygenDiffusionPrefactor') === undefined) ||
+      (c.value('oxygenDiffusionPrefactor') !== undefined && c.value('oxygenDiffusionActivation') === undefined),
+    message: 'missing: the kinetic history needs a chemical diffusion coefficient of oxygen (prefactor and activation energy), and the library has none for this support',
+    allowed: '--oxygen-diffusion-prefactor D0 and --oxygen-diffusion-activation E, or --vacancy-history frozen|equilibrated',
   },
   {
     option: 'donorLevel2',
@@ -277,6 +311,9 @@ function required(c: Resolution, option: OptionName, hint: string): number {
 function pretreatmentDonors(c: Resolution): number {
   const info = pretreatmentInfo(c);
   c.pretreatment = info;
+  const oxygenSites_cm3 = c.num('oxygenSites')! * 1e-6;
+  const source: VacancySource = { kind: 'pretreatment', temperature_K: info.equilibrationTemperature_K!, oxygenPressure_bar: info.oxygenPressure_Pa! / 1e5, oxygenSites_cm3 };
+  c.vacancySource = { source, enthalpy_eV: c.num('reductionEnthalpy')!, entropy_kB: c.num('reductionEntropy')! };
   c.inputs.push({
     field: 'donor density (oxygen vacancies)',
     value: info.vacancyDensity_cm3!,
@@ -325,6 +362,105 @@ function pretreatmentInfo(c: Resolution): PretreatmentInfo {
     vacancyDensity_cm3: result.vacancyDensity_cm3,
     equilibrationTemperature_K,
   };
+}
+
+/** The reaction gas as given, and its equilibrium pO2 recorded with its provenance. */
+function reactionGasOf(c: Resolution): { gas: ReactionGas; label: string; value: number } {
+  const po2 = c.num('reactionOxygenPressure');
+  if (po2 !== undefined) return { gas: { kind: 'O2', oxygenPressure_bar: po2 / 1e5 }, label: 'O2', value: po2 / 1e5 };
+  const h2 = c.num('reactionHydrogenToWater');
+  if (h2 !== undefined) return { gas: { kind: 'H2/H2O', hydrogenToWater: h2 }, label: 'H2/H2O', value: h2 };
+  const co = c.num('reactionMonoxideToDioxide')!;
+  return { gas: { kind: 'CO/CO2', monoxideToDioxide: co }, label: 'CO/CO2', value: co };
+}
+
+/** Donors from the reaction atmosphere (after a reduction, if given): src/bulk/atmosphere.ts. */
+function atmosphereDonors(c: Resolution): number {
+  const reduction = hasReductionGas(c) ? pretreatmentInfo(c) : null;
+  if (reduction !== null) c.pretreatment = reduction;
+  const name = c.records.support?.name ?? 'this support';
+  const enthalpy_eV = required(c, 'reductionEnthalpy', `an energy per vacancy (the library has no reduction data for ${name})`);
+  const entropy_kB = required(c, 'reductionEntropy', 'an entropy per vacancy in units of k_B');
+  const oxygenSites_cm3 = required(c, 'oxygenSites', 'a density of oxygen lattice sites, e.g. "5e22 cm^-3"') * 1e-6;
+  const reaction = reactionGasOf(c);
+  const prefactor = c.num('oxygenDiffusionPrefactor');
+  const spec = {
+    reactionTemperature_K: c.num('temperature')!,
+    reactionGas: reaction.gas,
+    history: c.value('vacancyHistory') as VacancyHistoryChoice,
+    timeOnStream_s: c.num('timeOnStream') ?? null,
+    reduction: reduction === null ? null : { temperature_K: reduction.reductionTemperature_K!, gas: { kind: 'O2' as const, oxygenPressure_bar: reduction.oxygenPressure_Pa! / 1e5 } },
+    grainSize_m: c.num('grainSize')!,
+    diffusion: prefactor === undefined ? null : { prefactor_m2_s: prefactor, activation_eV: c.num('oxygenDiffusionActivation')! },
+    band: { bandGap_eV: c.num('bandGap')!, electronMass_me: c.num('electronMass')!, holeMass_me: c.num('holeMass')! },
+  };
+  const source: VacancySource = { kind: 'atmosphere', spec, oxygenSites_cm3 };
+  c.vacancySource = { source, enthalpy_eV, entropy_kB };
+  const atmosphere = vacanciesOfSource(source, enthalpy_eV, entropy_kB).atmosphere!;
+  c.defects = defectsInfo(atmosphere, reaction, spec.timeOnStream_s, spec.grainSize_m);
+  const ref = c.lib.references.get('chase1998');
+  c.inputs.push({
+    field: 'oxygen pressure (reaction gas)',
+    value: atmosphere.oxygenPartialPressure_bar,
+    unit: 'bar',
+    origin: 'derived',
+    source: 'chase1998',
+    ...(ref !== undefined ? { citation: formatCitation(ref) } : {}),
+    note: `${reaction.label} = ${formatNumber(reaction.value)} at ${formatNumber(spec.reactionTemperature_K, 4)} K (NIST-JANAF gas equilibria)`,
+  });
+  c.inputs.push({
+    field: 'donor density (oxygen vacancies)',
+    value: atmosphere.vacancies_cm3,
+    unit: 'cm^-3',
+    origin: 'derived',
+    note: `${atmosphere.history} vacancies in the reaction gas (mass action with charge neutrality, src/bulk/atmosphere.ts)`,
+  });
+  return atmosphere.vacancies_cm3 * 1e6;
+}
+
+function defectsInfo(a: AtmosphereDefects, gas: { label: string; value: number }, timeOnStream_s: number | null, grainSize_m: number): DefectsInfo {
+  return {
+    history: a.history,
+    reactionGas: gas.label,
+    reactionGasValue: gas.value,
+    oxygenPartialPressure_bar: a.oxygenPartialPressure_bar,
+    log10OxygenPartialPressure_bar: a.log10OxygenPartialPressure_bar,
+    vacancies_cm3: a.vacancies_cm3,
+    equilibriumVacancies_cm3: a.equilibriumVacancies_cm3,
+    reequilibrationTime_s: a.reequilibrationTime_s,
+    equilibratedFraction: a.equilibratedFraction,
+    timeOnStream_s,
+    grainSize_nm: grainSize_m * 1e9,
+    notes: a.notes,
+  };
+}
+
+const NO_DEFECTS: DefectsInfo = {
+  history: 'none',
+  reactionGas: null,
+  reactionGasValue: null,
+  oxygenPartialPressure_bar: null,
+  log10OxygenPartialPressure_bar: null,
+  vacancies_cm3: null,
+  equilibriumVacancies_cm3: null,
+  reequilibrationTime_s: null,
+  equilibratedFraction: null,
+  timeOnStream_s: null,
+  grainSize_nm: null,
+  notes: [],
+};
+
+/**
+ * The contact with its vacancy donors recomputed for the support's reduction enthalpy and entropy, when these differ
+ * from the nominal ones (an --uncertainty sample); otherwise the contact itself.
+ */
+export function withVacancyDonors(r: ResolvedContact): ResolvedContact {
+  const v = r.vacancySource;
+  const s = r.support;
+  if (v === null || (s.reductionEnthalpy_eV === v.enthalpy_eV && s.reductionEntropy_kB === v.entropy_kB)) return r;
+  const sampled = vacanciesOfSource(v.source, s.reductionEnthalpy_eV ?? v.enthalpy_eV, s.reductionEntropy_kB ?? v.entropy_kB);
+  const defects = sampled.atmosphere === null ? r.defects : { ...r.defects, vacancies_cm3: sampled.vacancies_cm3, equilibriumVacancies_cm3: sampled.atmosphere.equilibriumVacancies_cm3 };
+  return { ...r, support: { ...s, donors_m3: sampled.vacancies_cm3 * 1e6 }, defects };
 }
 
 const NO_PRETREATMENT: PretreatmentInfo = {
@@ -423,6 +559,8 @@ function assembleResolved(c: Resolution): ResolvedContact {
     interfaceLayerPermittivity: c.num('interfaceLayerPermittivity'),
     localisedSites_m3: c.num('localisedSites'),
     localisedLevel_eV: c.num('localisedLevel'),
+    reductionEnthalpy_eV: c.num('reductionEnthalpy'),
+    reductionEntropy_kB: c.num('reductionEntropy'),
   };
   const supportWorkFunction = c.num('supportWorkFunction');
   if (supportWorkFunction !== undefined) support.donors_m3 = donorsForWorkFunction(c, support, supportWorkFunction);
@@ -441,6 +579,8 @@ function assembleResolved(c: Resolution): ResolvedContact {
     uncertaintySamples: c.num('uncertainty')!,
     seed: c.num('seed') ?? 1,
     pretreatment: c.pretreatment ?? NO_PRETREATMENT,
+    defects: c.defects ?? NO_DEFECTS,
+    vacancySource: c.vacancySource,
     inputs: c.inputs,
     cautions: c.cautions,
     ranges: c.ranges,

@@ -112,6 +112,22 @@ export interface ContactOptions {
   reductionEntropy?: QuantityInput;
   /** oxygen lattice site density, cm^-3 if bare @default library value of the support */
   oxygenSites?: QuantityInput;
+  /** oxygen partial pressure of the reaction gas at the temperature, bar if bare @default none (no reaction atmosphere) */
+  reactionOxygenPressure?: QuantityInput;
+  /** pH2/pH2O of the reaction gas at the temperature @default none */
+  reactionHydrogenToWater?: QuantityInput;
+  /** pCO/pCO2 of the reaction gas at the temperature @default none */
+  reactionMonoxideToDioxide?: QuantityInput;
+  /** vacancies during the reaction: frozen (set by the hottest step), equilibrated with the reaction gas, or kinetic (diffusion over the time on stream) @default equilibrated */
+  vacancyHistory?: 'frozen' | 'equilibrated' | 'kinetic';
+  /** time on stream in the reaction gas, s if bare ("5 h") @default none (required for the kinetic history) */
+  timeOnStream?: QuantityInput;
+  /** support grain (crystallite) diameter for vacancy re-equilibration by diffusion, nm if bare @default 20 nm */
+  grainSize?: QuantityInput;
+  /** prefactor D0 of the chemical diffusion coefficient of oxygen, cm^2/s if bare @default library value of the support */
+  oxygenDiffusionPrefactor?: QuantityInput;
+  /** activation energy of the chemical diffusion coefficient of oxygen, eV @default library value of the support */
+  oxygenDiffusionActivation?: QuantityInput;
   /** materials library, or extra materials files to load on top of the built-in one @default the built-in library */
   materials?: MaterialsLibrary | string[];
   /** mesh refinement factor @default 1 */
@@ -140,7 +156,8 @@ export interface RowContext {
 }
 
 /** Inputs an uncertainty study may vary within their published ranges (ResolvedContact field names). */
-export type SampledField = 'workFunction_eV' | 'electronAffinity_eV' | 'bandGap_eV' | 'permittivity' | 'donors_m3' | 'donorLevel1_eV';
+export type SampledField = 'workFunction_eV' | 'electronAffinity_eV' | 'bandGap_eV' | 'permittivity' | 'donors_m3' | 'donorLevel1_eV'
+  | 'reductionEnthalpy_eV' | 'reductionEntropy_kB';
 
 export type ParameterKind = 'quantity' | 'integer' | 'choice' | 'text' | 'materials';
 
@@ -201,9 +218,15 @@ const PERMITTIVITY = [1, 1e5] as const;
 const FREE_MASS = { value: 1, note: 'not given: free-electron mass assumed' };
 const typicalIf = (p: boolean) => (r: LibraryRecords): PropertyValue | undefined =>
   p === (r.support?.conductionType === 'p') ? r.support?.typicalDensity_cm3 : undefined;
-/** a reduction pretreatment sets the donors (oxygen vacancies) */
-export const hasPretreatment = (c: RowContext): boolean => c.given('oxygenPressure') || c.given('hydrogenToWater');
-const PRETREATMENT = { test: hasPretreatment, text: 'with a reduction pretreatment (--oxygen-pressure or --hydrogen-to-water)' };
+/** a reduction pretreatment gas (--oxygen-pressure or --hydrogen-to-water) */
+export const hasReductionGas = (c: RowContext): boolean => c.given('oxygenPressure') || c.given('hydrogenToWater');
+/** a reaction atmosphere at the reaction temperature (issue 12) */
+export const hasReactionGas = (c: RowContext): boolean =>
+  c.given('reactionOxygenPressure') || c.given('reactionHydrogenToWater') || c.given('reactionMonoxideToDioxide');
+/** a reduction pretreatment or a reaction atmosphere sets the donors (oxygen vacancies) */
+export const hasPretreatment = (c: RowContext): boolean => hasReductionGas(c) || hasReactionGas(c);
+const PRETREATMENT = { test: hasPretreatment, text: 'with a reduction pretreatment or a reaction gas (--oxygen-pressure, --hydrogen-to-water, --reaction-...)' };
+const REACTION_GAS = { test: hasReactionGas, text: 'with a reaction gas (--reaction-oxygen-pressure, --reaction-hydrogen-to-water or --reaction-co-to-co2)' };
 const positive = (c: RowContext, o: OptionName): boolean => ((c.value(o) as number | undefined) ?? 0) > 0;
 /** the library donor applies when its type is the chosen one (a double donor needs both levels) */
 const libraryDonor = (r: LibraryRecords, c: RowContext) => {
@@ -274,7 +297,8 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
   },
   reductionTemperature: {
     flag: '--reduction-temperature <T>', help: 'reduction pretreatment temperature (vacancies frozen in)', defaultText: 'the temperature (equilibrium)',
-    kind: 'quantity', quantity: 'temperature', limits: [298, 1500], label: 'reduction temperature', when: PRETREATMENT,
+    kind: 'quantity', quantity: 'temperature', limits: [298, 1500], label: 'reduction temperature',
+    when: { test: hasReductionGas, text: 'with a reduction gas (--oxygen-pressure or --hydrogen-to-water)' },
   },
   oxygenPressure: {
     flag: '--oxygen-pressure <P>', help: 'oxygen pressure of the pretreatment (bar if bare, "1e-20 bar")',
@@ -285,15 +309,52 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
   reductionEnthalpy: {
     flag: '--reduction-enthalpy <E>', help: 'vacancy formation (reduction) enthalpy per vacancy, eV', defaultText: 'library value of the support',
     ...energy([0, 20]), label: 'reduction enthalpy', library: (r) => r.support?.reduction?.enthalpy_eV, when: PRETREATMENT,
+    sampling: 'uniform', sampledAs: 'reductionEnthalpy_eV',
   },
   reductionEntropy: {
     flag: '--reduction-entropy <S>', help: 'reduction entropy per vacancy, in k_B', defaultText: 'library value of the support',
     ...plain([-100, 100]), unit: 'k_B', label: 'reduction entropy', library: (r) => r.support?.reduction?.entropy_kB, when: PRETREATMENT,
+    sampling: 'uniform', sampledAs: 'reductionEntropy_kB',
   },
   oxygenSites: {
     flag: '--oxygen-sites <N>', help: 'oxygen lattice site density (cm^-3 if bare)', defaultText: 'library value of the support',
     kind: 'quantity', quantity: 'volumeDensity', limits: [1e26, 1e30], label: 'oxygen site density',
     library: (r) => r.support?.reduction?.oxygenSites_cm3, when: PRETREATMENT,
+  },
+  reactionOxygenPressure: {
+    flag: '--reaction-oxygen-pressure <P>', help: 'O2 partial pressure of the reaction gas at the temperature (bar if bare)',
+    kind: 'quantity', quantity: 'pressure', limits: [1e-55, 1e7], label: 'reaction O2 pressure',
+  },
+  reactionHydrogenToWater: {
+    flag: '--reaction-hydrogen-to-water <R>', help: 'pH2/pH2O of the reaction gas at the temperature', ...plain([1e-6, 1e8]), label: 'reaction H2/H2O ratio',
+    when: { test: (c) => !c.given('reactionOxygenPressure'), text: 'without --reaction-oxygen-pressure (give one reaction gas)' },
+  },
+  reactionMonoxideToDioxide: {
+    flag: '--reaction-co-to-co2 <R>', help: 'pCO/pCO2 of the reaction gas at the temperature', ...plain([1e-6, 1e8]), label: 'reaction CO/CO2 ratio',
+    when: { test: (c) => !c.given('reactionOxygenPressure') && !c.given('reactionHydrogenToWater'), text: 'without another reaction gas (give one)' },
+  },
+  vacancyHistory: {
+    flag: '--vacancy-history <KIND>', help: 'vacancies during the reaction: frozen (set by the hottest step), equilibrated with the reaction gas, or kinetic',
+    defaultText: 'equilibrated', kind: 'choice', choices: ['frozen', 'equilibrated', 'kinetic'], fallback: { value: 'equilibrated' }, when: REACTION_GAS,
+  },
+  timeOnStream: {
+    flag: '--time-on-stream <T>', help: 'time in the reaction gas (s if bare, "5 h")', defaultText: 'none (required for the kinetic history)',
+    kind: 'quantity', quantity: 'time', limits: [0, 1e10], label: 'time on stream', when: REACTION_GAS,
+  },
+  grainSize: {
+    flag: '--grain-size <L>', help: 'support grain diameter for vacancy re-equilibration by diffusion (nm if bare)', defaultText: '20 nm',
+    kind: 'quantity', quantity: 'length', limits: [0.5e-9, 1e-3], label: 'support grain size', when: REACTION_GAS,
+    fallback: { value: 20e-9, note: 'not given: 20 nm, a crystallite size typical of oxide support powders (common practice, no source)' },
+  },
+  oxygenDiffusionPrefactor: {
+    flag: '--oxygen-diffusion-prefactor <D>', help: 'prefactor D0 of the chemical diffusion coefficient of oxygen (cm^2/s if bare)',
+    defaultText: 'library value of the support', kind: 'quantity', quantity: 'diffusionCoefficient', limits: [1e-20, 1e2], label: 'oxygen diffusion prefactor',
+    library: (r) => r.support?.reduction?.vacancyDiffusion?.prefactor_cm2_s, when: REACTION_GAS,
+  },
+  oxygenDiffusionActivation: {
+    flag: '--oxygen-diffusion-activation <E>', help: 'activation energy of the chemical diffusion coefficient of oxygen', defaultText: 'library value of the support',
+    ...energy([0, 10]), label: 'oxygen diffusion activation energy', library: (r) => r.support?.reduction?.vacancyDiffusion?.activation_eV,
+    when: { test: (c) => hasReactionGas(c) && c.value('oxygenDiffusionPrefactor') !== undefined, text: 'with --oxygen-diffusion-prefactor (or a library one)' },
   },
   donors: {
     flag: '--donors <N>', help: 'donor defect density (cm^-3 if bare)', defaultText: 'library typical density of an n-type support, else 0',

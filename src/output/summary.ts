@@ -84,6 +84,15 @@ export function keyResultRows(result: ContactResult): [string, string][] {
       formatLogQuantity(e.equilibrationTime_s, e.equilibrationTimeLog10_s, 's') + (e.slow ? ' (slow: more than an hour)' : ''),
     ]);
   }
+  const d = result.defects;
+  if (d.history !== 'none') {
+    const time = d.reequilibrationTime_s === null ? 'no diffusion coefficient' : `re-equilibration d^2/D = ${formatQuantity(d.reequilibrationTime_s, 's')}`;
+    rows.push([
+      'oxygen vacancies',
+      `${formatQuantity(d.vacancies_cm3, 'cm^-3')} (${d.history}; ${d.reactionGas} ${formatNumber(d.reactionGasValue)}, pO2 = 10^${formatNumber(d.log10OxygenPartialPressure_bar, 4)} bar; ${time})`,
+    ]);
+    for (const note of d.notes) rows.push(['vacancy note', note]);
+  }
   if (result.uncertainty) {
     const u = result.uncertainty;
     rows.push([
