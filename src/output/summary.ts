@@ -84,8 +84,8 @@ export function keyResultRows(result: ContactResult): [string, string][] {
       formatLogQuantity(e.equilibrationTime_s, e.equilibrationTimeLog10_s, 's') + (e.slow ? ' (slow: more than an hour)' : ''),
     ]);
   }
-  const d = result.defects;
-  if (d.history !== 'none') {
+  const d = result.defects as ContactResult['defects'] | undefined; // absent in results written before issue 12
+  if (d !== undefined && d.history !== 'none') {
     const time = d.reequilibrationTime_s === null ? 'no diffusion coefficient' : `re-equilibration d^2/D = ${formatQuantity(d.reequilibrationTime_s, 's')}`;
     rows.push([
       'oxygen vacancies',
