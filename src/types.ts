@@ -94,7 +94,7 @@ export interface PretreatmentInfo {
 /** Oxygen vacancies of the support in the reaction atmosphere at the reaction temperature. */
 export interface DefectsInfo {
   /** 'none' without a reaction gas (the donors are given, from the library, or from a reduction alone) */
-  history: 'none' | 'frozen' | 'equilibrated' | 'kinetic';
+  history: 'none' | 'frozen' | 'equilibrated' | 'kinetic' | 'overlayer-as-deposited' | 'overlayer-annealed';
   /** 'O2', 'H2/H2O' or 'CO/CO2'; null without a reaction gas */
   reactionGas: string | null;
   /** the given pO2 or the pH2/pH2O or pCO/pCO2 ratio */
@@ -112,6 +112,9 @@ export interface DefectsInfo {
   equilibratedFraction: number | null;
   timeOnStream_s: number | null;
   grainSize_nm: number | null;
+  /** inverse catalyst: the overlayer's thickness, nm, and its anneal temperature, K (the anneal gas is the O2 above) */
+  overlayerThickness_nm: number | null;
+  annealTemperature_K: number | null;
   notes: string[];
 }
 

@@ -8,8 +8,8 @@ import { donorsForFermiLevel } from '../derived/fermiLevel.js';
 import { formatNumber } from '../output/format.js';
 import { parseQuantity } from './units.js';
 import { frozenInDonorDensity, oxygenPressureFromHydrogenWater, vacancyDonorDensity } from './pretreatment.js';
-import { vacanciesOfSource, type AtmosphereDefects, type VacancyHistoryChoice, type VacancySource } from '../bulk/atmosphere.js';
-import type { ReactionGas } from '../bulk/defectChemistry.js';
+import type { VacancySource } from '../bulk/atmosphere.js';
+import { NO_DEFECTS, atmosphereDonors, overlayerDonors, type DefectDonors } from './defectInputs.js';
 import {
   PARAMETERS,
   OPTION_NAMES,
@@ -18,6 +18,7 @@ import {
   displayUnitOf,
   flagName,
   fromDisplay,
+  hasOverlayer,
   hasPretreatment,
   hasReactionGas,
   hasReductionGas,
@@ -34,6 +35,7 @@ import type { BarrierModel, DefectsInfo, GeometryKind, PretreatmentInfo, Statist
 import type { DonorKind } from '../bulk/equilibrium.js';
 
 export type { ContactOptions } from './parameters.js';
+export { withVacancyDonors } from './defectInputs.js';
 
 export interface ResolvedSupport {
   name: string;
@@ -136,7 +138,7 @@ class Resolution implements RowContext {
 /** Inputs computed from others when the user does not give them (tried before the library value). */
 const DERIVED: Partial<Record<OptionName, (c: Resolution) => number | undefined>> = {
   electronAffinity: electronAffinityFromFormula,
-  donors: (c) => (hasReactionGas(c) ? atmosphereDonors(c) : hasReductionGas(c) ? pretreatmentDonors(c) : undefined),
+  donors: (c) => (hasPretreatment(c) ? defectDonors(c) : undefined),
 };
 
 /** Refusals that need several options at once (the single-option ones are the `when` of each row). */
@@ -168,6 +170,18 @@ const CROSS_RULES: { option: OptionName; refuse: (o: ContactOptions, c: Resoluti
     allowed: '--oxygen-diffusion-prefactor D0 and --oxygen-diffusion-activation E, or --vacancy-history frozen|equilibrated',
   },
   {
+    option: 'overlayerVacancies',
+    refuse: (o, c) => hasOverlayer(c) && o.overlayerVacancies === undefined,
+    message: 'missing',
+    allowed: 'the overlayer needs its as-deposited vacancy density, e.g. "1e20 cm^-3" (MO_x: N_O (x_ideal - x)/x_ideal)',
+  },
+  {
+    option: 'annealTime',
+    refuse: (_o, c) => c.value('annealTemperature') !== undefined && (c.value('oxygenDiffusionPrefactor') === undefined || c.value('oxygenDiffusionActivation') === undefined),
+    message: 'an anneal needs the diffusion coefficient of oxygen in the overlayer to tell how far it re-oxidises, and the library has none for this support',
+    allowed: '--oxygen-diffusion-prefactor D0 and --oxygen-diffusion-activation E',
+  },
+  {
     option: 'donorLevel2',
     refuse: (o, c) => o.donorLevel !== undefined && c.value('donorType') === 'double' && o.donorLevel2 === undefined,
     message: 'missing',
@@ -184,6 +198,18 @@ const CROSS_RULES: { option: OptionName; refuse: (o: ContactOptions, c: Resoluti
     refuse: (_o, c) => c.value('barrierModel') === 'interface-states' && c.value('neutralLevelAboveValence') === undefined,
     message: 'missing: --barrier-model interface-states needs a charge-neutrality level, and the library has none for this support',
     allowed: 'an energy above E_V, or --barrier-model ideal|pinned|given',
+  },
+  {
+    option: 'supportThickness',
+    refuse: (o, c) => hasOverlayer(c) && o.supportThickness !== undefined,
+    message: 'cannot be combined with --overlayer-thickness (the overlayer is the support)',
+    allowed: 'either --support-thickness or --overlayer-thickness',
+  },
+  {
+    option: 'geometry',
+    refuse: (_o, c) => hasOverlayer(c) && c.value('geometry') !== 'planar',
+    message: 'an oxide overlayer on a metal is a planar film',
+    allowed: 'planar (the default) with --overlayer-thickness',
   },
   {
     option: 'particleDensity',
@@ -307,6 +333,20 @@ function required(c: Resolution, option: OptionName, hint: string): number {
   return v;
 }
 
+/** Donors from the defect chemistry: an overlayer's own vacancies, a reaction atmosphere (after a reduction), or a reduction alone. */
+function defectDonors(c: Resolution): number {
+  const adopt = (d: DefectDonors): number => {
+    c.defects = d.defects;
+    c.vacancySource = d.vacancySource;
+    return d.donors_m3;
+  };
+  if (hasOverlayer(c)) return adopt(overlayerDonors(c));
+  if (!hasReactionGas(c)) return pretreatmentDonors(c);
+  const reduction = hasReductionGas(c) ? pretreatmentInfo(c) : null;
+  if (reduction !== null) c.pretreatment = reduction;
+  return adopt(atmosphereDonors(c, reduction));
+}
+
 /** Donors from the reduction pretreatment: oxygen vacancies (double donors) from the gas condition. */
 function pretreatmentDonors(c: Resolution): number {
   const info = pretreatmentInfo(c);
@@ -362,105 +402,6 @@ function pretreatmentInfo(c: Resolution): PretreatmentInfo {
     vacancyDensity_cm3: result.vacancyDensity_cm3,
     equilibrationTemperature_K,
   };
-}
-
-/** The reaction gas as given, and its equilibrium pO2 recorded with its provenance. */
-function reactionGasOf(c: Resolution): { gas: ReactionGas; label: string; value: number } {
-  const po2 = c.num('reactionOxygenPressure');
-  if (po2 !== undefined) return { gas: { kind: 'O2', oxygenPressure_bar: po2 / 1e5 }, label: 'O2', value: po2 / 1e5 };
-  const h2 = c.num('reactionHydrogenToWater');
-  if (h2 !== undefined) return { gas: { kind: 'H2/H2O', hydrogenToWater: h2 }, label: 'H2/H2O', value: h2 };
-  const co = c.num('reactionMonoxideToDioxide')!;
-  return { gas: { kind: 'CO/CO2', monoxideToDioxide: co }, label: 'CO/CO2', value: co };
-}
-
-/** Donors from the reaction atmosphere (after a reduction, if given): src/bulk/atmosphere.ts. */
-function atmosphereDonors(c: Resolution): number {
-  const reduction = hasReductionGas(c) ? pretreatmentInfo(c) : null;
-  if (reduction !== null) c.pretreatment = reduction;
-  const name = c.records.support?.name ?? 'this support';
-  const enthalpy_eV = required(c, 'reductionEnthalpy', `an energy per vacancy (the library has no reduction data for ${name})`);
-  const entropy_kB = required(c, 'reductionEntropy', 'an entropy per vacancy in units of k_B');
-  const oxygenSites_cm3 = required(c, 'oxygenSites', 'a density of oxygen lattice sites, e.g. "5e22 cm^-3"') * 1e-6;
-  const reaction = reactionGasOf(c);
-  const prefactor = c.num('oxygenDiffusionPrefactor');
-  const spec = {
-    reactionTemperature_K: c.num('temperature')!,
-    reactionGas: reaction.gas,
-    history: c.value('vacancyHistory') as VacancyHistoryChoice,
-    timeOnStream_s: c.num('timeOnStream') ?? null,
-    reduction: reduction === null ? null : { temperature_K: reduction.reductionTemperature_K!, gas: { kind: 'O2' as const, oxygenPressure_bar: reduction.oxygenPressure_Pa! / 1e5 } },
-    grainSize_m: c.num('grainSize')!,
-    diffusion: prefactor === undefined ? null : { prefactor_m2_s: prefactor, activation_eV: c.num('oxygenDiffusionActivation')! },
-    band: { bandGap_eV: c.num('bandGap')!, electronMass_me: c.num('electronMass')!, holeMass_me: c.num('holeMass')! },
-  };
-  const source: VacancySource = { kind: 'atmosphere', spec, oxygenSites_cm3 };
-  c.vacancySource = { source, enthalpy_eV, entropy_kB };
-  const atmosphere = vacanciesOfSource(source, enthalpy_eV, entropy_kB).atmosphere!;
-  c.defects = defectsInfo(atmosphere, reaction, spec.timeOnStream_s, spec.grainSize_m);
-  const ref = c.lib.references.get('chase1998');
-  c.inputs.push({
-    field: 'oxygen pressure (reaction gas)',
-    value: atmosphere.oxygenPartialPressure_bar,
-    unit: 'bar',
-    origin: 'derived',
-    source: 'chase1998',
-    ...(ref !== undefined ? { citation: formatCitation(ref) } : {}),
-    note: `${reaction.label} = ${formatNumber(reaction.value)} at ${formatNumber(spec.reactionTemperature_K, 4)} K (NIST-JANAF gas equilibria)`,
-  });
-  c.inputs.push({
-    field: 'donor density (oxygen vacancies)',
-    value: atmosphere.vacancies_cm3,
-    unit: 'cm^-3',
-    origin: 'derived',
-    note: `${atmosphere.history} vacancies in the reaction gas (mass action with charge neutrality, src/bulk/atmosphere.ts)`,
-  });
-  return atmosphere.vacancies_cm3 * 1e6;
-}
-
-function defectsInfo(a: AtmosphereDefects, gas: { label: string; value: number }, timeOnStream_s: number | null, grainSize_m: number): DefectsInfo {
-  return {
-    history: a.history,
-    reactionGas: gas.label,
-    reactionGasValue: gas.value,
-    oxygenPartialPressure_bar: a.oxygenPartialPressure_bar,
-    log10OxygenPartialPressure_bar: a.log10OxygenPartialPressure_bar,
-    vacancies_cm3: a.vacancies_cm3,
-    equilibriumVacancies_cm3: a.equilibriumVacancies_cm3,
-    reequilibrationTime_s: a.reequilibrationTime_s,
-    equilibratedFraction: a.equilibratedFraction,
-    timeOnStream_s,
-    grainSize_nm: grainSize_m * 1e9,
-    notes: a.notes,
-  };
-}
-
-const NO_DEFECTS: DefectsInfo = {
-  history: 'none',
-  reactionGas: null,
-  reactionGasValue: null,
-  oxygenPartialPressure_bar: null,
-  log10OxygenPartialPressure_bar: null,
-  vacancies_cm3: null,
-  equilibriumVacancies_cm3: null,
-  reequilibrationTime_s: null,
-  equilibratedFraction: null,
-  timeOnStream_s: null,
-  grainSize_nm: null,
-  notes: [],
-};
-
-/**
- * The contact with its vacancy donors recomputed for the support's reduction enthalpy and entropy, when these differ
- * from the nominal ones (an --uncertainty sample); otherwise the contact itself.
- */
-export function withVacancyDonors(r: ResolvedContact): ResolvedContact {
-  const v = r.vacancySource;
-  const s = r.support;
-  if (v === null || (s.reductionEnthalpy_eV === v.enthalpy_eV && s.reductionEntropy_kB === v.entropy_kB)) return r;
-  const sampled = vacanciesOfSource(v.source, s.reductionEnthalpy_eV ?? v.enthalpy_eV, s.reductionEntropy_kB ?? v.entropy_kB);
-  const defects = sampled.atmosphere === null ? r.defects : { ...r.defects, vacancies_cm3: sampled.vacancies_cm3, equilibriumVacancies_cm3: sampled.atmosphere.equilibriumVacancies_cm3 };
-  return { ...r, support: { ...s, donors_m3: sampled.vacancies_cm3 * 1e6 }, defects };
 }
 
 const NO_PRETREATMENT: PretreatmentInfo = {
@@ -573,7 +514,7 @@ function assembleResolved(c: Resolution): ResolvedContact {
     geometry: c.value('geometry') as GeometryKind,
     particleDiameter_m: c.num('particleDiameter')!,
     particleDensity_m2: c.num('particleDensity'),
-    supportThickness_m: c.num('supportThickness'),
+    supportThickness_m: c.num('supportThickness') ?? c.num('overlayerThickness'),
     statistics: c.value('statistics') as Statistics,
     refinement: c.num('refinement')!,
     uncertaintySamples: c.num('uncertainty')!,

@@ -128,6 +128,16 @@ export interface ContactOptions {
   oxygenDiffusionPrefactor?: QuantityInput;
   /** activation energy of the chemical diffusion coefficient of oxygen, eV @default library value of the support */
   oxygenDiffusionActivation?: QuantityInput;
+  /** inverse catalyst: thickness of the support as an oxide film on the metal, nm if bare (planar; the film is the support) @default none (a support on which the metal sits) */
+  overlayerThickness?: QuantityInput;
+  /** oxygen vacancies of the overlayer as deposited, cm^-3 if bare (MO_x: N_O (x_ideal - x)/x_ideal) @default none (required with an overlayer) */
+  overlayerVacancies?: QuantityInput;
+  /** temperature of an oxidising anneal of the overlayer, K if bare @default none (as deposited) */
+  annealTemperature?: QuantityInput;
+  /** oxygen pressure of the anneal, bar if bare @default 1 bar */
+  annealOxygenPressure?: QuantityInput;
+  /** duration of the anneal, s if bare ("1 h") @default 1 h */
+  annealTime?: QuantityInput;
   /** materials library, or extra materials files to load on top of the built-in one @default the built-in library */
   materials?: MaterialsLibrary | string[];
   /** mesh refinement factor @default 1 */
@@ -223,9 +233,18 @@ export const hasReductionGas = (c: RowContext): boolean => c.given('oxygenPressu
 /** a reaction atmosphere at the reaction temperature (issue 12) */
 export const hasReactionGas = (c: RowContext): boolean =>
   c.given('reactionOxygenPressure') || c.given('reactionHydrogenToWater') || c.given('reactionMonoxideToDioxide');
-/** a reduction pretreatment or a reaction atmosphere sets the donors (oxygen vacancies) */
-export const hasPretreatment = (c: RowContext): boolean => hasReductionGas(c) || hasReactionGas(c);
-const PRETREATMENT = { test: hasPretreatment, text: 'with a reduction pretreatment or a reaction gas (--oxygen-pressure, --hydrogen-to-water, --reaction-...)' };
+/** inverse catalyst: the support is an oxide overlayer on the metal (issue 12) */
+export const hasOverlayer = (c: RowContext): boolean => c.given('overlayerThickness');
+/** a reduction pretreatment, a reaction atmosphere or an overlayer's own vacancies set the donors (oxygen vacancies) */
+export const hasPretreatment = (c: RowContext): boolean => hasReductionGas(c) || hasReactionGas(c) || hasOverlayer(c);
+const PRETREATMENT = {
+  test: hasPretreatment,
+  text: 'with a reduction pretreatment, a reaction gas or an overlayer (--oxygen-pressure, --hydrogen-to-water, --reaction-..., --overlayer-thickness)',
+};
+/** a diffusion coefficient is used by a reaction gas (re-equilibration time) and by an overlayer anneal */
+const DIFFUSION_USED = (c: RowContext): boolean => hasReactionGas(c) || c.given('annealTemperature');
+const OVERLAYER = { test: hasOverlayer, text: 'with --overlayer-thickness' };
+const ANNEAL = { test: (c: RowContext) => c.given('annealTemperature'), text: 'with --anneal-temperature' };
 const REACTION_GAS = { test: hasReactionGas, text: 'with a reaction gas (--reaction-oxygen-pressure, --reaction-hydrogen-to-water or --reaction-co-to-co2)' };
 const positive = (c: RowContext, o: OptionName): boolean => ((c.value(o) as number | undefined) ?? 0) > 0;
 /** the library donor applies when its type is the chosen one (a double donor needs both levels) */
@@ -349,12 +368,34 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
   oxygenDiffusionPrefactor: {
     flag: '--oxygen-diffusion-prefactor <D>', help: 'prefactor D0 of the chemical diffusion coefficient of oxygen (cm^2/s if bare)',
     defaultText: 'library value of the support', kind: 'quantity', quantity: 'diffusionCoefficient', limits: [1e-20, 1e2], label: 'oxygen diffusion prefactor',
-    library: (r) => r.support?.reduction?.vacancyDiffusion?.prefactor_cm2_s, when: REACTION_GAS,
+    library: (r) => r.support?.reduction?.vacancyDiffusion?.prefactor_cm2_s,
+    when: { test: DIFFUSION_USED, text: 'with a reaction gas or --anneal-temperature' },
   },
   oxygenDiffusionActivation: {
     flag: '--oxygen-diffusion-activation <E>', help: 'activation energy of the chemical diffusion coefficient of oxygen', defaultText: 'library value of the support',
     ...energy([0, 10]), label: 'oxygen diffusion activation energy', library: (r) => r.support?.reduction?.vacancyDiffusion?.activation_eV,
-    when: { test: (c) => hasReactionGas(c) && c.value('oxygenDiffusionPrefactor') !== undefined, text: 'with --oxygen-diffusion-prefactor (or a library one)' },
+    when: { test: (c) => DIFFUSION_USED(c) && c.value('oxygenDiffusionPrefactor') !== undefined, text: 'with --oxygen-diffusion-prefactor (or a library one)' },
+  },
+  overlayerThickness: {
+    flag: '--overlayer-thickness <L>', help: 'inverse catalyst: the support is an oxide film of this thickness on the metal (nm if bare; planar)',
+    kind: 'quantity', quantity: 'length', limits: [0.5e-9, 1e-5], label: 'oxide overlayer thickness',
+    when: { test: (c) => !hasReactionGas(c) && !hasReductionGas(c), text: 'without a reduction or reaction gas' },
+  },
+  overlayerVacancies: {
+    flag: '--overlayer-vacancies <N>', help: 'oxygen vacancies of the overlayer as deposited (cm^-3 if bare)', defaultText: 'none (required with an overlayer)',
+    kind: 'quantity', quantity: 'volumeDensity', limits: DENSITY_M3, label: 'overlayer vacancies (as deposited)', when: OVERLAYER,
+  },
+  annealTemperature: {
+    flag: '--anneal-temperature <T>', help: 'oxidising anneal of the overlayer: temperature', defaultText: 'none (as deposited)',
+    kind: 'quantity', quantity: 'temperature', limits: [298, 1500], label: 'anneal temperature', when: OVERLAYER,
+  },
+  annealOxygenPressure: {
+    flag: '--anneal-oxygen-pressure <P>', help: 'oxygen pressure of the anneal (bar if bare)', defaultText: '1 bar',
+    kind: 'quantity', quantity: 'pressure', limits: [1e-55, 1e7], label: 'anneal oxygen pressure', when: ANNEAL, fallback: { value: 1e5, note: 'not given: 1 bar O2' },
+  },
+  annealTime: {
+    flag: '--anneal-time <T>', help: 'duration of the anneal (s if bare, "1 h")', defaultText: '1 h',
+    kind: 'quantity', quantity: 'time', limits: [0, 1e10], label: 'anneal time', when: ANNEAL, fallback: { value: 3600, note: 'not given: 1 h' },
   },
   donors: {
     flag: '--donors <N>', help: 'donor defect density (cm^-3 if bare)', defaultText: 'library typical density of an n-type support, else 0',

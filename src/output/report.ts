@@ -232,6 +232,15 @@ export function contactResultRows(result: ContactResult): ResultRow[] {
   add('pretreatment', 'H2/H2O ratio', formatNumber(t.hydrogenToWater));
   add('pretreatment', 'vacancy density', formatQuantity(t.vacancyDensity_cm3, 'cm^-3'));
   add('pretreatment', 'vacancy equilibration temperature', formatQuantity(t.equilibrationTemperature_K, 'K', 4));
+  const d = result.defects as ContactResult['defects'] | undefined; // absent in results written before issue 12
+  if (d !== undefined && d.history !== 'none') {
+    add('reaction atmosphere', 'vacancy history', d.history);
+    add('reaction atmosphere', `reaction gas ${d.reactionGas ?? ''}`, formatNumber(d.reactionGasValue));
+    add('reaction atmosphere', 'equilibrium pO2', `10^${formatNumber(d.log10OxygenPartialPressure_bar, 4)} bar`);
+    add('reaction atmosphere', 'vacancies (donors used)', formatQuantity(d.vacancies_cm3, 'cm^-3'));
+    add('reaction atmosphere', 'vacancies in equilibrium with the gas', formatQuantity(d.equilibriumVacancies_cm3, 'cm^-3'));
+    add('reaction atmosphere', 're-equilibration time d^2/D', d.reequilibrationTime_s === null ? 'no diffusion coefficient' : formatQuantity(d.reequilibrationTime_s, 's'));
+  }
 
   if (result.uncertainty) {
     const u = result.uncertainty;

@@ -189,6 +189,8 @@ export const OUTPUT_PATHS = [
   'defects.equilibratedFraction',
   'defects.timeOnStream_s',
   'defects.grainSize_nm',
+  'defects.overlayerThickness_nm',
+  'defects.annealTemperature_K',
   'solver.converged',
   'solver.iterations',
   'solver.meshPoints',
