@@ -171,6 +171,8 @@ function depletionFixture(over: Partial<FixtureParams> = {}): ContactResult {
       equilibratedFraction: null,
       timeOnStream_s: null,
       grainSize_nm: null,
+      overlayerThickness_nm: null,
+      annealTemperature_K: null,
       notes: [],
     },
     profile: {
