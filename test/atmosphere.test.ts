@@ -48,7 +48,7 @@ describe('vacancies in equilibrium with the reaction gas', () => {
     // M. W. Chase, NIST-JANAF Thermochemical Tables, 4th ed. (1998): at 1000 K log Kf(H2O) = 10.060, so H2/H2O = 1
     // gives log10 pO2 = -2 x 10.060; CO2 - CO: log Kf 20.679 - 10.461 = 10.218, so CO/CO2 = 1 gives -20.436
     const h2 = solveContact({ ...ceria, temperature: '1000 K', reactionHydrogenToWater: 1 });
-    const co = solveContact({ ...ceria, temperature: '1000 K', reactionMonoxideToDioxide: 1 });
+    const co = solveContact({ ...ceria, temperature: '1000 K', reactionCoToCo2: 1 });
     expect(h2.defects.log10OxygenPartialPressure_bar!).toBeCloseTo(-20.12, 2);
     expect(co.defects.log10OxygenPartialPressure_bar!).toBeCloseTo(-20.436, 2);
     expect(h2.cautions.some((c) => /flammable/i.test(c))).toBe(true);
@@ -58,7 +58,7 @@ describe('vacancies in equilibrium with the reaction gas', () => {
 });
 
 describe('vacancy history after a reduction (CeO2 reduced in H2/H2O = 100 at 973 K, CO/CO2 = 1 at 573 K)', () => {
-  const base = { ...ceria, temperature: '573 K', reductionTemperature: '973 K', hydrogenToWater: 100, reactionMonoxideToDioxide: 1 } as const;
+  const base = { ...ceria, temperature: '573 K', reductionTemperature: '973 K', hydrogenToWater: 100, reactionCoToCo2: 1 } as const;
   const frozen = solveContact({ ...base, vacancyHistory: 'frozen' });
   const equilibrated = solveContact({ ...base, vacancyHistory: 'equilibrated' });
 

@@ -30,4 +30,38 @@ describe('classic metal–support systems from library data (examples/catalyst-s
     expect(r.support).toBe('ThO2');
     expect(Math.abs(r.electronsPerParticle)).toBeLessThan(1);
   });
+
+  describe('inverse catalyst: SiO_1.9 film on Pt, as deposited and after an anneal in O2 (examples/catalyst-systems.md)', () => {
+    // SiO_1.9: (2 - 1.9)/2 of the library's 4.41e22 cm^-3 oxygen sites are empty; O2 permeation in vitreous silica
+    // D = 2.7e-4 exp(-1.17 eV/kT) cm^2/s (from memory of Norton, Nature 191, 701 (1961), verify)
+    const film = (thickness: string, anneal: boolean) =>
+      solveContact({
+        metal: 'Pt',
+        support: 'SiO2',
+        overlayerThickness: thickness,
+        overlayerVacancies: `${0.05 * 4.41e22}`,
+        ...(anneal ? { annealTemperature: '773 K', annealTime: '1 h', oxygenDiffusionPrefactor: '2.7e-4', oxygenDiffusionActivation: '1.17 eV' } : {}),
+      });
+    it('as deposited, 1-100 nm: electrons from the oxygen-deficient film to Pt (charging by SiOx stoichiometry: Crampton et al. 2016, from memory)', () => {
+      for (const t of ['1 nm', '10 nm', '100 nm']) {
+        const r = film(t, false);
+        expect(r.defects.history).toBe('overlayer-as-deposited');
+        expect(r.defects.overlayerThickness_nm).toBeCloseTo(Number.parseFloat(t), 9);
+        expect(r.direction).toBe('support-to-metal');
+        expect(r.spaceCharge_C_per_m2).toBeGreaterThan(0.01);
+      }
+    });
+    it('after 1 h at 773 K in 1 bar O2 the film is re-oxidised and the charge transfer disappears (issue 12 observation)', () => {
+      for (const t of ['1 nm', '10 nm', '100 nm']) {
+        const before = film(t, false);
+        const after = film(t, true);
+        expect(after.defects.history).toBe('overlayer-annealed');
+        // thickness^2 / D (Crank slab, one face exchanging) is far below the anneal: equilibrium reached
+        expect(after.defects.reequilibrationTime_s!).toBeLessThan(3600);
+        expect(after.defects.vacancies_cm3!).toBeLessThan(1e-12 * before.defects.vacancies_cm3!);
+        expect(Math.abs(after.spaceCharge_C_per_m2)).toBeLessThan(1e-12 * before.spaceCharge_C_per_m2);
+      }
+    });
+  });
 });
+

@@ -150,7 +150,7 @@ const CROSS_RULES: { option: OptionName; refuse: (o: ContactOptions, c: Resoluti
     allowed: 'either --donors or reduction conditions',
   },
   {
-    option: 'reactionMonoxideToDioxide',
+    option: 'reactionCoToCo2',
     refuse: (_o, c) => hasReactionGas(c) && hasReductionGas(c) && !c.given('reductionTemperature'),
     message: 'a reduction gas and a reaction gas at the same temperature: give --reduction-temperature for the reduction',
     allowed: '--reduction-temperature T with --oxygen-pressure / --hydrogen-to-water, or the reaction gas alone',

@@ -65,7 +65,7 @@ function reactionGasOf(c: DefectContext): { gas: ReactionGas; label: string; val
   if (po2 !== undefined) return { gas: { kind: 'O2', oxygenPressure_bar: po2 / 1e5 }, label: 'O2', value: po2 / 1e5 };
   const h2 = c.num('reactionHydrogenToWater');
   if (h2 !== undefined) return { gas: { kind: 'H2/H2O', hydrogenToWater: h2 }, label: 'H2/H2O', value: h2 };
-  const co = c.num('reactionMonoxideToDioxide')!;
+  const co = c.num('reactionCoToCo2')!;
   return { gas: { kind: 'CO/CO2', monoxideToDioxide: co }, label: 'CO/CO2', value: co };
 }
 

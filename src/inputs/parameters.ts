@@ -117,7 +117,7 @@ export interface ContactOptions {
   /** pH2/pH2O of the reaction gas at the temperature @default none */
   reactionHydrogenToWater?: QuantityInput;
   /** pCO/pCO2 of the reaction gas at the temperature @default none */
-  reactionMonoxideToDioxide?: QuantityInput;
+  reactionCoToCo2?: QuantityInput;
   /** vacancies during the reaction: frozen (set by the hottest step), equilibrated with the reaction gas, or kinetic (diffusion over the time on stream) @default equilibrated */
   vacancyHistory?: 'frozen' | 'equilibrated' | 'kinetic';
   /** time on stream in the reaction gas, s if bare ("5 h") @default none (required for the kinetic history) */
@@ -232,7 +232,7 @@ const typicalIf = (p: boolean) => (r: LibraryRecords): PropertyValue | undefined
 export const hasReductionGas = (c: RowContext): boolean => c.given('oxygenPressure') || c.given('hydrogenToWater');
 /** a reaction atmosphere at the reaction temperature (issue 12) */
 export const hasReactionGas = (c: RowContext): boolean =>
-  c.given('reactionOxygenPressure') || c.given('reactionHydrogenToWater') || c.given('reactionMonoxideToDioxide');
+  c.given('reactionOxygenPressure') || c.given('reactionHydrogenToWater') || c.given('reactionCoToCo2');
 /** inverse catalyst: the support is an oxide overlayer on the metal (issue 12) */
 export const hasOverlayer = (c: RowContext): boolean => c.given('overlayerThickness');
 /** a reduction pretreatment, a reaction atmosphere or an overlayer's own vacancies set the donors (oxygen vacancies) */
@@ -348,7 +348,7 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
     flag: '--reaction-hydrogen-to-water <R>', help: 'pH2/pH2O of the reaction gas at the temperature', ...plain([1e-6, 1e8]), label: 'reaction H2/H2O ratio',
     when: { test: (c) => !c.given('reactionOxygenPressure'), text: 'without --reaction-oxygen-pressure (give one reaction gas)' },
   },
-  reactionMonoxideToDioxide: {
+  reactionCoToCo2: {
     flag: '--reaction-co-to-co2 <R>', help: 'pCO/pCO2 of the reaction gas at the temperature', ...plain([1e-6, 1e8]), label: 'reaction CO/CO2 ratio',
     when: { test: (c) => !c.given('reactionOxygenPressure') && !c.given('reactionHydrogenToWater'), text: 'without another reaction gas (give one)' },
   },
