@@ -294,7 +294,7 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
   },
   supportWorkFunction: {
     flag: '--support-work-function <E>', help: 'measured support work function: sets the bulk Fermi level (E_C - E_F = Phi_s - chi)',
-    ...energy([1, 8]), label: 'support work function', when: { test: (c) => !hasPretreatment(c), text: 'without a reduction pretreatment' },
+    ...energy([1, 8]), label: 'support work function', when: { test: (c) => !hasPretreatment(c), text: 'without a reduction pretreatment, reaction gas or overlayer' },
   },
   permittivity: {
     flag: '--permittivity <ER>', help: 'static relative permittivity', defaultText: 'library value of the support', ...plain(PERMITTIVITY),
