@@ -16,12 +16,13 @@ import {
   decadeTicks,
   heatmapSpec,
   linePlotSpec,
+  localisedLevelOf,
   mottSchottkyFitSpec,
   prefersLogDepth,
   type Row,
 } from '../src/output/figures.js';
 import { compileSpec, renderSvg, svgSize, writeFigure } from '../src/output/render.js';
-import { writeContactReport, writeScreenReport, writeStudyReport, sortRows } from '../src/output/report.js';
+import { contactResultRows, writeContactReport, writeScreenReport, writeStudyReport, sortRows } from '../src/output/report.js';
 import { formatContactSummary, formatNumber, shouldUseColor } from '../src/output/summary.js';
 
 // ---------------------------------------------------------------- synthetic fixture
@@ -280,6 +281,73 @@ describe('band diagram', () => {
     const svg = await renderSvg(bandDiagramSpec(p));
     expect(svg).toContain('hole barrier');
     expect(svg).toContain('2.9 eV');
+  });
+});
+
+describe('band diagram: interface states and localised level', () => {
+  // Interface-state and localised-level view of the fixture: the localised level sits exactly at E_F at the
+  // interface, where Fermi–Dirac occupancy of a site with spin degeneracy g = 2 is g/(g+1) = 2/3
+  // (Sze & Ng, Physics of Semiconductor Devices, 3rd ed., eq. 1.35 form for a singly occupiable level).
+  const ec0 = fixture.profile.conductionBand_eV[0]!;
+  const withStates: ContactResult = {
+    ...fixture,
+    barrierModel: 'interface-states',
+    interfaceStates: {
+      stateDensity_per_eV_cm2: 3e13,
+      neutralLevelAboveValence_eV: 2.2,
+      layerThickness_nm: 0.5,
+      layerPermittivity: 1,
+      interfaceStateCharge_C_per_m2: 0.016,
+      metalCharge_C_per_m2: -0.02,
+      layerDrop_eV: 0.2,
+      electronsFromInterfaceStates: 0.5,
+      electronsFromSpaceCharge: 1.5,
+      evaluations: 9,
+    },
+    bulk: { ...fixture.bulk, localisedElectrons_cm3: 1e18 },
+    inputs: [
+      ...fixture.inputs,
+      { field: 'localised-electron sites', value: 1e22, unit: 'cm^-3', origin: 'library', source: 'ref-c' },
+      { field: 'localised level (depth below E_C)', value: ec0, unit: 'eV', origin: 'library', source: 'ref-d' },
+      { field: 'charge-neutrality level (above E_V)', value: 2.2, unit: 'eV', origin: 'library', source: 'ref-e', citation: 'CNL compilation (test entry)', fromMemory: true },
+    ],
+  };
+
+  it('reads the localised level and its occupancy (2/3 where the level meets E_F)', () => {
+    const view = localisedLevelOf(withStates)!;
+    expect(view.depth_eV).toBe(ec0);
+    expect(view.interfaceOccupancy).toBeCloseTo(2 / 3, 12);
+    expect(view.bulkOccupancy).toBeCloseTo(1e18 / 1e22, 15);
+    expect(localisedLevelOf(fixture)).toBeNull();
+  });
+
+  it('draws the CNL at E_V(0) + phi_0 and the localised level E_C(x) - depth, and states both in the subtitle', async () => {
+    const spec = bandDiagramSpec(withStates) as unknown as { layer: { data?: { values?: Record<string, unknown>[] } }[]; title: { subtitle: string[] } };
+    const values = spec.layer.flatMap((l) => l.data?.values ?? []);
+    const cnl = values.find((v) => v.label === 'CNL')!;
+    expect(cnl.y as number).toBeCloseTo(fixture.profile.valenceBand_eV[0]! + 2.2, 12);
+    const localised = values.filter((v) => v.series === 'localised level E_L');
+    expect(localised.length).toBe(fixture.profile.x_nm.length);
+    expect(localised[0]!.energy_eV as number).toBeCloseTo(0, 12);
+    expect(spec.title.subtitle.join(' ')).toContain('+0.5 electrons to the particle');
+    expect(spec.title.subtitle.join(' ')).toContain('67% at the interface');
+    const svg = await expectRenders(bandDiagramSpec(withStates) as TopLevelSpec);
+    expect(svg).toContain('localised level E_L');
+    // without interface states or localised sites nothing extra is drawn
+    const plain = bandDiagramSpec(fixture) as unknown as { layer: { data?: { values?: Record<string, unknown>[] } }[] };
+    expect(plain.layer.flatMap((l) => l.data?.values ?? []).some((v) => v.label === 'CNL' || v.series === 'localised level E_L')).toBe(false);
+  });
+
+  it('lists the interface-state block, the photoemission band bending, the particle work function and the model data', () => {
+    const rows = contactResultRows(withStates);
+    const value = (label: string) => rows.find((r) => r.label === label)?.value ?? '';
+    expect(rows.filter((r) => r.group === 'interface states').length).toBe(7);
+    expect(value('electrons to the particle from interface states / space charge')).toBe('+0.5 / +1.5');
+    expect(value('band bending seen by photoemission')).toContain('+0.5 eV');
+    expect(value('particle work function (size-corrected)')).toBe('5.1 eV');
+    expect(value('barrier model data')).toContain('CNL compilation (test entry), from memory');
+    expect(value('localised (small-polaron) electrons')).toContain('67% at the interface');
+    expect(contactResultRows(fixture).some((r) => r.group === 'interface states')).toBe(false);
   });
 });
 

@@ -1,7 +1,7 @@
 // Monte Carlo propagation of literature scatter: each material input with a published range is sampled
 // (uniformly, or log-uniformly for densities), the contact is re-solved, and the spread of results reported.
 import type { ResolvedContact } from '../inputs/contactInput.js';
-import { rowOfSample } from '../inputs/parameters.js';
+import { rowOfSample, type SampledField } from '../inputs/parameters.js';
 import type { ContactResult, FlowDirection, Percentiles, UncertaintySummary } from '../types.js';
 import { ConvergenceError, isModelFailure, requireInRange } from '../errors.js';
 
@@ -31,17 +31,54 @@ function percentiles(values: number[]): Percentiles {
   return { p05: percentile(sorted, 0.05), p50: percentile(sorted, 0.5), p95: percentile(sorted, 0.95) };
 }
 
-/** One sampled copy of the resolved inputs: each ranged input drawn by its table row's sampling rule. */
-export function sampleInputs(base: ResolvedContact, random: () => number): ResolvedContact {
+/**
+ * Published ranges of inputs that have no library range of their own, used when the contact took their default:
+ * - interfacial layer thickness (interface-state model): 0.25 to 0.5 nm, from the decay length of metal-induced gap
+ *   states, a few tenths of a nm (Louie, Chelikowsky & Cohen, Phys. Rev. B 15, 2154 (1977); from memory, verify), to
+ *   the 0.5 nm of Cowley & Sze (1965);
+ * - interfacial layer permittivity: 1 (vacuum-like gap, Cowley & Sze 1965) to the support's optical permittivity
+ *   (the interface permittivity in Mönch's MIGS slope 1/S - 1 = q^2 D delta / (eps0 eps_i); from memory, verify);
+ * - size coefficient of the particle's work function (hemisphere, array): the metal's library min/max (3/8 to 1/2,
+ *   Seidl & Perdew, Phys. Rev. B 50, 5744 (1994)), recorded in the input provenance.
+ * With the layer and the slope S sampled, the density of interface states D = (1/S - 1) eps_i eps0 / (q^2 delta)
+ * varies too; a density given by the user is exact and not sampled.
+ */
+export const DEFAULT_LAYER_THICKNESS_RANGE_M: readonly [number, number] = [0.25e-9, 0.5e-9];
+
+function defaultOrigin(base: ResolvedContact, label: string): boolean {
+  return base.inputs.some((i) => i.field === label && i.origin === 'default');
+}
+
+/** Every range --uncertainty samples for this contact: the library ranges of the table rows, then the defaults'. */
+export function samplingRanges(base: ResolvedContact): Map<SampledField, [number, number]> {
+  const ranges = new Map(base.ranges);
+  if (base.barrierModel === 'interface-states') {
+    if (defaultOrigin(base, 'interfacial layer thickness')) ranges.set('interfaceLayerThickness_m', [...DEFAULT_LAYER_THICKNESS_RANGE_M]);
+    const epsInf = base.support.opticalPermittivity;
+    if (defaultOrigin(base, 'interfacial layer permittivity') && epsInf > 1) ranges.set('interfaceLayerPermittivity', [1, epsInf]);
+  }
+  const size = base.inputs.find((i) => i.field === 'size coefficient of the work function');
+  if (base.geometry !== 'planar' && size?.min !== undefined && size.max !== undefined && size.max > size.min) {
+    ranges.set('sizeWorkFunctionCoefficient', [size.min, size.max]);
+  }
+  return ranges;
+}
+
+/** One sampled copy of the resolved inputs: each ranged input drawn by its table row's sampling rule (else uniform). */
+export function sampleInputs(base: ResolvedContact, random: () => number, ranges = samplingRanges(base)): ResolvedContact {
   const metal: Record<string, unknown> = { ...base.metal };
   const support: Record<string, unknown> = { ...base.support };
-  for (const [field, [min, max]] of base.ranges) {
+  for (const [field, [min, max]] of ranges) {
     const u = random();
-    const logScale = rowOfSample(field).sampling === 'log-uniform' && min > 0;
+    const logScale = rowOfSample(field)?.sampling === 'log-uniform' && min > 0;
     const value = logScale ? Math.exp(Math.log(min) + u * (Math.log(max) - Math.log(min))) : min + u * (max - min);
     if (field in metal) metal[field] = value;
     else support[field] = value;
   }
+  // a sampled charge-neutrality level above the sampled gap is taken at the band edge, as the library caps it
+  const gap = support['bandGap_eV'] as number;
+  const level = support['neutralLevelAboveValence_eV'] as number | undefined;
+  if (level !== undefined && level > gap) support['neutralLevelAboveValence_eV'] = gap;
   return { ...base, metal: metal as unknown as ResolvedContact['metal'], support: support as unknown as ResolvedContact['support'] };
 }
 
@@ -58,13 +95,14 @@ export function propagateUncertainty(
   requireInRange('--uncertainty', samples, 1, 100000, 'samples');
   requireInRange('--seed', seed, 0, 2 ** 32 - 1, '');
   const random = seededRandom(seed);
+  const ranges = samplingRanges(base);
   const counts: Record<FlowDirection, number> = { 'support-to-metal': 0, 'metal-to-support': 0, none: 0 };
   const barrier: number[] = [];
   const bending: number[] = [];
   const electrons: number[] = [];
   let failed = 0;
   for (let i = 0; i < samples; i++) {
-    const sampled = sampleInputs(base, random);
+    const sampled = sampleInputs(base, random, ranges);
     let result: ContactResult;
     try {
       result = solve(sampled);
@@ -86,7 +124,7 @@ export function propagateUncertainty(
     samples,
     seed,
     failed,
-    sampledInputs: [...base.ranges.keys()],
+    sampledInputs: [...ranges.keys()],
     directionProbability: {
       'support-to-metal': probability('support-to-metal'),
       'metal-to-support': probability('metal-to-support'),

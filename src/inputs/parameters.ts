@@ -166,7 +166,13 @@ export interface RowContext {
 }
 
 /** Inputs an uncertainty study may vary within their published ranges (ResolvedContact field names). */
-export type SampledField = 'workFunction_eV' | 'electronAffinity_eV' | 'bandGap_eV' | 'permittivity' | 'donors_m3' | 'donorLevel1_eV'
+export type SampledField =
+  | 'workFunction_eV' | 'electronAffinity_eV' | 'bandGap_eV' | 'permittivity' | 'donors_m3' | 'donorLevel1_eV'
+  // interface states, localised states and the finite particle (issue 11); the last three have no table row and
+  // are sampled in derived/uncertainty.ts from their defaults' published ranges / the metal's library range
+  | 'pinningFactor' | 'neutralLevelAboveValence_eV' | 'localisedSites_m3' | 'localisedLevel_eV'
+  | 'interfaceLayerThickness_m' | 'interfaceLayerPermittivity' | 'sizeWorkFunctionCoefficient'
+  // reduction thermodynamics (issue 12)
   | 'reductionEnthalpy_eV' | 'reductionEntropy_kB';
 
 export type ParameterKind = 'quantity' | 'integer' | 'choice' | 'text' | 'materials';
@@ -435,7 +441,7 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
   },
   pinningFactor: {
     flag: '--pinning-factor <S>', help: 'pinning factor S', defaultText: 'library value, else empirical from the optical permittivity',
-    ...plain([0, 1]), label: 'pinning factor', library: (r) => r.support?.pinningFactor,
+    ...plain([0, 1]), label: 'pinning factor', library: (r) => r.support?.pinningFactor, sampling: 'uniform', sampledAs: 'pinningFactor',
     when: {
       test: (c) => c.value('barrierModel') === 'pinned' || (c.value('barrierModel') === 'interface-states' && !c.given('interfaceStateDensity')),
       text: 'with --barrier-model pinned, or interface-states without --interface-state-density',
@@ -453,6 +459,7 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
   neutralLevelAboveValence: {
     flag: '--neutral-level-above-valence <E>', help: 'charge-neutrality level of the interface states above E_V', defaultText: 'library value of the support',
     ...energy([0, 12]), label: 'charge-neutrality level (above E_V)', library: (r) => r.support?.chargeNeutralityAboveValence_eV,
+    sampling: 'uniform', sampledAs: 'neutralLevelAboveValence_eV',
     when: INTERFACE_STATES,
   },
   interfaceStateDensity: {
@@ -463,22 +470,26 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
   interfaceLayerThickness: {
     flag: '--interface-layer-thickness <L>', help: 'interfacial layer thickness (nm if bare)', defaultText: 'library value, else 0.5 nm',
     kind: 'quantity', quantity: 'length', limits: [0, 10e-9], label: 'interfacial layer thickness', library: (r) => r.support?.interfaceLayerThickness_nm,
+    sampling: 'uniform', sampledAs: 'interfaceLayerThickness_m',
     fallback: { value: DEFAULT_INTERFACE_LAYER_THICKNESS_M, note: 'Cowley & Sze (1965) / Sze & Ng sec. 3.2 interfacial-layer thickness (from memory, verify)' },
     when: INTERFACE_STATES,
   },
   interfaceLayerPermittivity: {
     flag: '--interface-layer-permittivity <ER>', help: 'interfacial layer relative permittivity', defaultText: 'library value, else 1',
     ...plain([1, 1000]), label: 'interfacial layer permittivity', library: (r) => r.support?.interfaceLayerPermittivity,
+    sampling: 'uniform', sampledAs: 'interfaceLayerPermittivity',
     fallback: { value: DEFAULT_INTERFACE_LAYER_PERMITTIVITY, note: 'vacuum-like gap of Cowley & Sze (1965) (from memory, verify)' },
     when: INTERFACE_STATES,
   },
   localisedSites: {
     flag: '--localised-sites <N>', help: 'sites for localised (small-polaron) electrons (cm^-3 if bare)', defaultText: 'library value of the support, else none',
     kind: 'quantity', quantity: 'volumeDensity', limits: DENSITY_M3, label: 'localised-electron sites', library: (r) => r.support?.localisedSiteDensity_cm3,
+    sampling: 'log-uniform', sampledAs: 'localisedSites_m3',
   },
   localisedLevel: {
     flag: '--localised-level <E>', help: 'localised-electron level depth below E_C', defaultText: 'library value of the support',
     ...energy(LEVEL_EV), label: 'localised level (depth below E_C)', library: (r) => r.support?.localisedLevel_eV,
+    sampling: 'uniform', sampledAs: 'localisedLevel_eV',
     when: { test: (c) => positive(c, 'localisedSites'), text: 'with --localised-sites' },
   },
   geometry: {
@@ -533,8 +544,8 @@ export function row(option: OptionName): ParameterRow {
 }
 
 /** The row an uncertainty sample field comes from. */
-export function rowOfSample(field: SampledField): ParameterRow {
-  return BY_SAMPLE.get(field)!;
+export function rowOfSample(field: SampledField): ParameterRow | undefined {
+  return BY_SAMPLE.get(field);
 }
 
 /** '--donors' from '--donors <N>'. */

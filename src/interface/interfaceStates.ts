@@ -179,15 +179,7 @@ export interface InterfaceAlignment {
   iterations: number;
 }
 
-/**
- * Self-consistent barrier with interface states, interfacial layer and space charge (Cowley & Sze 1965):
- * solves Phi_B = phi_m - N/g_tot - chi + Q_m delta / (eps_i eps0), Q_m = -(Q_sc + Q_it) (extended contact) or
- * -q N / A_footprint (particle), for the band bending by Brent's method. Limits: D_it -> 0 or delta -> 0 gives the
- * Schottky–Mott rule; D_it -> infinity pins Phi_B at E_g - phi_0 (Bardeen); negligible Q_sc gives the linear
- * Phi_B = S (phi_m - chi) + (1 - S)(E_g - phi_0). Throws InputError on bad input, ConvergenceError if the caller's
- * space charge is not monotone enough to bracket a root.
- */
-export function solveInterfaceAlignment(input: InterfaceAlignmentInput): InterfaceAlignment {
+function checkAlignmentInput(input: InterfaceAlignmentInput): void {
   requireInRange('bandGap_eV', input.bandGap_eV, 0.01, 20, 'eV');
   checkParameters(input, input.bandGap_eV);
   requireInRange('metalWorkFunction_eV', input.metalWorkFunction_eV, 0, 20, 'eV');
@@ -200,82 +192,109 @@ export function solveInterfaceAlignment(input: InterfaceAlignmentInput): Interfa
     requireInRange('particle.footprintArea_m2', particle.footprintArea_m2, 1e-22, 1, 'm^2');
     requireInRange('particle.interfaceArea_m2', particle.interfaceArea_m2, 0, 1, 'm^2');
   }
-  const tolerance = input.tolerance_eV ?? 1e-12;
-  const xiBulk = input.fermiLevelBelowConduction_eV;
-  const gap = input.bandGap_eV;
-  const phi0 = input.neutralLevelAboveValence_eV;
-  const d = input.stateDensity_per_eV_m2;
-  const layer = input.layerThickness_m / (input.layerPermittivity * EPS0_F_PER_M); // V per (C/m^2)
+}
 
+/** The charges and the residual of the alignment at one interface band bending. */
+interface AlignmentState {
+  residual: number;
+  qsc: number;
+  qit: number;
+  qm: number;
+  electrons: number;
+  shift: number;
+}
+
+/**
+ * R(v) = Phi_B - (phi_m - N/g - chi + Q_m delta/(eps_i eps0)) at interface band bending v (eV), increasing in v;
+ * `count()` is the number of evaluations so far (each is one Poisson solve of the caller's space charge).
+ */
+function alignmentResidual(input: InterfaceAlignmentInput): { evaluate: (v: number) => AlignmentState; count: () => number } {
+  const particle = input.particle;
+  const layer = input.layerThickness_m / (input.layerPermittivity * EPS0_F_PER_M); // V per (C/m^2)
   let evaluations = 0;
-  interface State {
-    residual: number;
-    qsc: number;
-    qit: number;
-    qm: number;
-    electrons: number;
-    shift: number;
-  }
-  function evaluate(v: number): State {
+  const evaluate = (v: number): AlignmentState => {
     evaluations++;
-    const barrier = xiBulk + v;
+    const barrier = input.fermiLevelBelowConduction_eV + v;
     const qsc = input.spaceCharge(v);
     if (!Number.isFinite(qsc)) throw new RangeError(`spaceCharge(${v}) returned ${qsc}`);
-    const qit = interfaceStateCharge_C_per_m2(barrier, gap, phi0, d, input.temperature_K);
-    let qm: number;
+    const qit = interfaceStateCharge_C_per_m2(barrier, input.bandGap_eV, input.neutralLevelAboveValence_eV, input.stateDensity_per_eV_m2, input.temperature_K);
+    let qm = -(qsc + qit);
     let electrons = 0;
     let shift = 0;
-    if (particle === undefined) {
-      qm = -(qsc + qit);
-    } else {
+    if (particle !== undefined) {
       electrons = particleElectrons(qsc, qit, particle.interfaceArea_m2, particle.footprintArea_m2);
       shift = electrons / particle.densityOfStates_per_eV;
       qm = (-Q_ELEMENTARY_C * electrons) / particle.footprintArea_m2;
     }
-    // R = Phi_B - (phi_m - N/g - chi + Q_m delta/(eps_i eps0)); increasing in v
     const residual = barrier - (input.metalWorkFunction_eV - shift - input.electronAffinity_eV + qm * layer);
     return { residual, qsc, qit, qm, electrons, shift };
-  }
+  };
+  return { evaluate, count: () => evaluations };
+}
 
-  // Bracket: at the largest of the Schottky–Mott bending, the pinned bending and 0 every charge term is >= 0, so
-  // R >= 0 there; symmetric at the smallest. Widened if the caller's Q_sc or the band-edge truncation of the
-  // Fermi–Dirac interface states moves the neutral points by a little.
+/**
+ * Bracket of the root: at the largest of the Schottky–Mott bending, the pinned bending and 0 every charge term is
+ * >= 0, so R >= 0 there; symmetric at the smallest. Widened if the caller's Q_sc or the band-edge truncation of the
+ * Fermi–Dirac interface states moves the neutral points by a little.
+ */
+function bracketBending(
+  input: InterfaceAlignmentInput,
+  evaluate: (v: number) => AlignmentState,
+  count: () => number,
+): { lo: number; hi: number; fLo: number; fHi: number } {
+  const xiBulk = input.fermiLevelBelowConduction_eV;
   const vSchottkyMott = input.metalWorkFunction_eV - input.electronAffinity_eV - xiBulk;
-  const vPinned = gap - phi0 - xiBulk;
+  const vPinned = input.bandGap_eV - input.neutralLevelAboveValence_eV - xiBulk;
   let lo = Math.min(vSchottkyMott, vPinned, 0) - 1e-3;
   let hi = Math.max(vSchottkyMott, vPinned, 0) + 1e-3;
-  let fLo = evaluate(lo);
-  let fHi = evaluate(hi);
+  let fLo = evaluate(lo).residual;
+  let fHi = evaluate(hi).residual;
   let widen = 0;
-  while (fLo.residual > 0 && widen < 60) {
+  while (fLo > 0 && widen < 60) {
     lo -= Math.max(1, Math.abs(lo));
-    fLo = evaluate(lo);
+    fLo = evaluate(lo).residual;
     widen++;
   }
-  while (fHi.residual < 0 && widen < 120) {
+  while (fHi < 0 && widen < 120) {
     hi += Math.max(1, Math.abs(hi));
-    fHi = evaluate(hi);
+    fHi = evaluate(hi).residual;
     widen++;
   }
-  if (!(fLo.residual <= 0 && fHi.residual >= 0)) {
-    throw new ConvergenceError('no bracket for the interface band bending (space charge not monotone?)', evaluations);
+  if (!(fLo <= 0 && fHi >= 0)) {
+    throw new ConvergenceError('no bracket for the interface band bending (space charge not monotone?)', count());
   }
-  const root = brent((v) => evaluate(v).residual, lo, hi, fLo.residual, fHi.residual, tolerance);
+  return { lo, hi, fLo, fHi };
+}
+
+/**
+ * Self-consistent barrier with interface states, interfacial layer and space charge (Cowley & Sze 1965):
+ * solves Phi_B = phi_m - N/g_tot - chi + Q_m delta / (eps_i eps0), Q_m = -(Q_sc + Q_it) (extended contact) or
+ * -q N / A_footprint (particle), for the band bending by Brent's method. Limits: D_it -> 0 or delta -> 0 gives the
+ * Schottky–Mott rule; D_it -> infinity pins Phi_B at E_g - phi_0 (Bardeen); negligible Q_sc gives the linear
+ * Phi_B = S (phi_m - chi) + (1 - S)(E_g - phi_0). Throws InputError on bad input, ConvergenceError if the caller's
+ * space charge is not monotone enough to bracket a root.
+ */
+export function solveInterfaceAlignment(input: InterfaceAlignmentInput): InterfaceAlignment {
+  checkAlignmentInput(input);
+  const { evaluate, count } = alignmentResidual(input);
+  const { lo, hi, fLo, fHi } = bracketBending(input, evaluate, count);
+  const root = brent((v) => evaluate(v).residual, lo, hi, fLo, fHi, input.tolerance_eV ?? 1e-12);
   const state = evaluate(root);
-  const pinningFactor = 1 / (1 + Q_ELEMENTARY_C * d * layer);
+  const layer = input.layerThickness_m / (input.layerPermittivity * EPS0_F_PER_M);
+  const particle = input.particle;
   return {
-    electronBarrier_eV: xiBulk + root,
+    electronBarrier_eV: input.fermiLevelBelowConduction_eV + root,
     bandBending_eV: root,
     spaceCharge_C_per_m2: state.qsc,
     interfaceStateCharge_C_per_m2: state.qit,
     metalCharge_C_per_m2: state.qm,
     layerDrop_eV: -state.qm * layer,
-    pinningFactor,
+    pinningFactor: 1 / (1 + Q_ELEMENTARY_C * input.stateDensity_per_eV_m2 * layer),
     particle:
       particle === undefined
         ? null
         : { electronsGained: state.electrons, fermiLevelShift_eV: state.shift, effectiveWorkFunction_eV: input.metalWorkFunction_eV - state.shift },
-    iterations: evaluations,
+    iterations: count(),
   };
 }
 

@@ -5,6 +5,9 @@
 import type { Config, TopLevelSpec } from 'vega-lite';
 import type { ContactResult } from '../types.js';
 import { formatNumber, formatSigned } from './summary.js';
+import { row, type OptionName } from '../inputs/parameters.js';
+import { LOCALISED_DEGENERACY } from '../bulk/equilibrium.js';
+import { K_BOLTZMANN_EV_PER_K, Q_ELEMENTARY_C } from '../constants.js';
 
 type LayerTopLevel = Extract<TopLevelSpec, { layer: unknown }>;
 /** One layer of a layered spec (a unit spec or a nested layer). */
@@ -107,6 +110,7 @@ export const BAND_SERIES = {
   conduction: 'conduction band E_C',
   valence: 'valence band E_V',
   fermi: 'Fermi level E_F',
+  localised: 'localised level E_L',
 } as const;
 
 interface LevelPoint {
@@ -116,10 +120,18 @@ interface LevelPoint {
   order: number;
 }
 
+interface SupportPoint {
+  x: number;
+  ec: number;
+  ev: number;
+  rho: number;
+  field: number;
+}
+
 /** Support-side points of the profile, sorted by depth, non-finite points dropped. */
-function supportPoints(result: ContactResult): { x: number; ec: number; ev: number; rho: number; field: number }[] {
+function supportPoints(result: ContactResult): SupportPoint[] {
   const p = result.profile;
-  const pts: { x: number; ec: number; ev: number; rho: number; field: number }[] = [];
+  const pts: SupportPoint[] = [];
   for (let i = 0; i < p.x_nm.length; i++) {
     const x = p.x_nm[i];
     const ec = p.conductionBand_eV[i];
@@ -136,166 +148,272 @@ export function electronAffinityOf(result: ContactResult): number {
   return result.supportWorkFunction_eV - result.fermiLevelBelowConduction_eV;
 }
 
-/**
- * Band diagram across the metal | support interface. Position x in nm: the metal is a short slab at
- * x < 0 (Fermi level and vacuum level E_vac = work function), the support at x >= 0 from the profile.
- * Energies are relative to the Fermi level (E_F = 0). Annotated: the barrier (E_F to E_C(0), or to E_V(0)
- * for a hole barrier) at the interface, and the band bending (bulk E_C to E_C(0)).
- */
-export function bandDiagramSpec(result: ContactResult, opts: BandDiagramOptions = {}): TopLevelSpec {
-  const pts = supportPoints(result);
-  if (pts.length === 0) throw new Error('bandDiagramSpec: the profile has no finite points');
-  const logDepth = opts.logDepth === true;
-  const width = opts.width ?? 620;
-  const height = opts.height ?? 380;
+/** Where the band diagram puts things: positions in nm, in data coordinates of the chosen x scale. */
+interface DiagramFrame {
+  logDepth: boolean;
+  /** symmetric-log constant (smallest positive depth) */
+  c: number;
+  xLeft: number;
+  xMax: number;
+  /** position at a fraction of the drawn support width */
+  at: (fraction: number) => number;
+}
 
-  const chi = electronAffinityOf(result);
+function diagramFrame(pts: readonly { x: number }[], logDepth: boolean): DiagramFrame {
   const xFirst = pts[0]!.x;
   const xMax = Math.max(pts[pts.length - 1]!.x, xFirst + 1e-9, 1e-9);
   const firstPositive = pts.find((p) => p.x > 0)?.x ?? xMax;
   const c = Math.max(firstPositive, xMax * 1e-6);
-
-  // place things at fractions of the drawn width, in data coordinates of the chosen scale
   const span = logDepth ? symlog(xMax, c) : xMax;
   const at = (fraction: number): number => (logDepth ? symlogInverse(fraction * span, c) : fraction * span);
-  const metalSlab = at(0.25); // metal from -metalSlab to 0
-  const xLeft = -metalSlab;
-  const xBarrier = -at(0.125); // visual middle of the metal slab on either scale
-  const xBending = at(0.93);
+  return { logDepth, c, xLeft: -at(0.25), xMax, at };
+}
 
-  const ec0 = pts[0]!.ec;
-  const ev0 = pts[0]!.ev;
-  const ecBulk = result.fermiLevelBelowConduction_eV;
+/** Value of an input the result used, found by its provenance label in the parameter table. */
+function inputValueOf(result: ContactResult, option: OptionName): number | undefined {
+  const label = row(option).label;
+  const hit = result.inputs.find((i) => i.field === label);
+  return hit !== undefined && finite(hit.value) ? hit.value : undefined;
+}
+
+/** Localised (small-polaron) level of the support and its occupancy, when the result used one. */
+export interface LocalisedLevelView {
+  /** depth of the level below E_C, eV */
+  depth_eV: number;
+  sites_cm3: number;
+  /** occupied fraction of the sites in the bulk (from the bulk solution) */
+  bulkOccupancy: number;
+  /** occupied fraction at the interface: f = 1 / (1 + exp((E_L(0) - E_F)/kT) / g), g = 2 (equilibrium.ts) */
+  interfaceOccupancy: number;
+}
+
+export function localisedLevelOf(result: ContactResult): LocalisedLevelView | null {
+  const sites = inputValueOf(result, 'localisedSites');
+  const depth = inputValueOf(result, 'localisedLevel');
+  const ec0 = result.profile.conductionBand_eV[0];
+  if (sites === undefined || !(sites > 0) || depth === undefined || !finite(ec0)) return null;
+  const kT = K_BOLTZMANN_EV_PER_K * result.temperature_K;
+  // Fermi–Dirac occupancy of a singly occupiable site with spin degeneracy g (Sze & Ng eq. 1.35 form)
+  const x = (ec0 - depth) / kT - Math.log(LOCALISED_DEGENERACY);
+  const interfaceOccupancy = x > 0 ? Math.exp(-x) / (1 + Math.exp(-x)) : 1 / (1 + Math.exp(x));
+  const bulkOccupancy = Math.min(1, Math.max(0, result.bulk.localisedElectrons_cm3 / sites));
+  return { depth_eV: depth, sites_cm3: sites, bulkOccupancy, interfaceOccupancy };
+}
+
+/** The energy-level series of the band diagram (vacuum, bands, Fermi level, localised level when present). */
+function diagramLevels(result: ContactResult, pts: readonly SupportPoint[], frame: DiagramFrame, localised: LocalisedLevelView | null): LevelPoint[] {
+  const chi = electronAffinityOf(result);
   const wm = result.metalWorkFunction_eV;
-
   const levels: LevelPoint[] = [];
   let order = 0;
-  levels.push({ series: BAND_SERIES.vacuum, x_nm: xLeft, energy_eV: wm, order: order++ });
-  levels.push({ series: BAND_SERIES.vacuum, x_nm: 0, energy_eV: wm, order: order++ });
-  for (const p of pts) levels.push({ series: BAND_SERIES.vacuum, x_nm: p.x, energy_eV: p.ec + chi, order: order++ });
-  for (const p of pts) levels.push({ series: BAND_SERIES.conduction, x_nm: p.x, energy_eV: p.ec, order: order++ });
-  for (const p of pts) levels.push({ series: BAND_SERIES.valence, x_nm: p.x, energy_eV: p.ev, order: order++ });
-  levels.push({ series: BAND_SERIES.fermi, x_nm: xLeft, energy_eV: 0, order: order++ });
-  levels.push({ series: BAND_SERIES.fermi, x_nm: xMax, energy_eV: 0, order: order++ });
+  const push = (series: string, x_nm: number, energy_eV: number) => levels.push({ series, x_nm, energy_eV, order: order++ });
+  push(BAND_SERIES.vacuum, frame.xLeft, wm);
+  push(BAND_SERIES.vacuum, 0, wm);
+  for (const p of pts) push(BAND_SERIES.vacuum, p.x, p.ec + chi);
+  for (const p of pts) push(BAND_SERIES.conduction, p.x, p.ec);
+  for (const p of pts) push(BAND_SERIES.valence, p.x, p.ev);
+  if (localised !== null) for (const p of pts) push(BAND_SERIES.localised, p.x, p.ec - localised.depth_eV);
+  push(BAND_SERIES.fermi, frame.xLeft, 0);
+  push(BAND_SERIES.fermi, frame.xMax, 0);
+  return levels;
+}
 
-  const energies = levels.map((l) => l.energy_eV);
-  const yMin = Math.floor((Math.min(minOf(energies), 0) - 0.6) * 2) / 2;
-  const yMax = Math.ceil((Math.max(maxOf(energies), wm) + 0.8) * 2) / 2;
+type Encode = (field: string) => { field: string; type: 'quantitative'; scale: object; axis: object };
+interface Encoders {
+  x: Encode;
+  y: Encode;
+  yMin: number;
+  yMax: number;
+}
 
-  const xScale = logDepth
+function diagramEncoders(frame: DiagramFrame, yMin: number, yMax: number): Encoders {
+  const { c, xLeft, xMax } = frame;
+  const xScale = frame.logDepth
     ? { type: 'symlog' as const, constant: c, domain: [xLeft, xMax], nice: false, zero: false }
     : { type: 'linear' as const, domain: [xLeft, xMax], nice: false, zero: false };
-  const xAxis = logDepth
+  const xAxis = frame.logDepth
     ? { values: [0, ...decadeTicks(c, xMax)], format: '~r', title: 'position (nm, symmetric-log scale); metal at x < 0' }
     : { format: '~r', title: 'position (nm); metal at x < 0, support at x > 0' };
   const yScale = { domain: [yMin, yMax], nice: false, zero: false };
   const yAxis = { title: 'energy relative to E_F (eV)', format: '~g' };
-  const x = (field: string) => ({ field, type: 'quantitative' as const, scale: xScale, axis: xAxis });
-  const y = (field: string) => ({ field, type: 'quantitative' as const, scale: yScale, axis: yAxis });
+  return {
+    x: (field) => ({ field, type: 'quantitative', scale: xScale, axis: xAxis }),
+    y: (field) => ({ field, type: 'quantitative', scale: yScale, axis: yAxis }),
+    yMin,
+    yMax,
+  };
+}
 
-  const hole = result.barrierCarrier === 'hole';
-  const barrierEdge = hole ? ev0 : ec0;
-  const barrierText = `${hole ? 'hole barrier' : 'barrier'} ${formatNumber(result.barrierHeight_eV)} eV`;
-  // labels sit just above the upper end of their rule so they never straddle a band or E_F
-  const bendingText = `band bending ${formatSigned(result.bandBending_eV)} eV`;
-  const textBase = { type: 'text' as const, fontSize: 11, lineBreak: '\n', color: PALETTE.ink };
+const TEXT_BASE = { type: 'text' as const, fontSize: 11, lineBreak: '\n', color: PALETTE.ink };
 
-  const seriesDomain = [BAND_SERIES.vacuum, BAND_SERIES.conduction, BAND_SERIES.valence, BAND_SERIES.fermi];
+/** A vertical rule from y1 to y2 at x with a label above its upper end. */
+function labelledRule(e: Encoders, x: number, y1: number, y2: number, label: string, color: string, align: 'center' | 'right'): Layer {
+  return {
+    data: { values: [{ x, y1, y2, label, ytop: Math.max(y1, y2) }] },
+    layer: [
+      { mark: { type: 'rule', color, strokeWidth: 2.5 }, encoding: { x: e.x('x'), y: e.y('y1'), y2: { field: 'y2' } } },
+      {
+        mark: { ...TEXT_BASE, align, baseline: 'bottom', dx: align === 'right' ? 4 : 0, dy: -4 },
+        encoding: { x: e.x('x'), y: e.y('ytop'), text: { field: 'label' } },
+      },
+    ],
+  };
+}
 
-  const layer: Layer[] = [
+/** Metal slab, interface line and the two region labels. */
+function frameLayers(result: ContactResult, frame: DiagramFrame, e: Encoders): Layer[] {
+  const { xLeft } = frame;
+  const text = (label: string, align: 'left' | 'right', dx: number): Layer => ({
+    data: { values: [{ x: 0, y: e.yMax, label }] },
+    mark: { ...TEXT_BASE, align, baseline: 'top', dx, dy: 6, fontWeight: 'bold' },
+    encoding: { x: e.x('x'), y: e.y('y'), text: { field: 'label' } },
+  });
+  return [
     // metal slab: occupied states up to E_F
     {
-      data: { values: [{ x1: xLeft, x2: 0, y1: yMin, y2: 0 }] },
+      data: { values: [{ x1: xLeft, x2: 0, y1: e.yMin, y2: 0 }] },
       mark: { type: 'rect', color: '#dcdcdc', opacity: 0.8 },
-      encoding: { x: x('x1'), x2: { field: 'x2' }, y: y('y1'), y2: { field: 'y2' } },
+      encoding: { x: e.x('x1'), x2: { field: 'x2' }, y: e.y('y1'), y2: { field: 'y2' } },
     },
     {
-      data: { values: [{ x: 0, y: yMin, label: 'filled metal states' }] },
-      mark: { ...textBase, align: 'right', baseline: 'bottom', dx: -6, dy: -4, color: '#555555', fontSize: 10 },
-      encoding: { x: x('x'), y: y('y'), text: { field: 'label' } },
+      data: { values: [{ x: 0, y: e.yMin, label: 'filled metal states' }] },
+      mark: { ...TEXT_BASE, align: 'right', baseline: 'bottom', dx: -6, dy: -4, color: '#555555', fontSize: 10 },
+      encoding: { x: e.x('x'), y: e.y('y'), text: { field: 'label' } },
     },
-    // interface
     {
-      data: { values: [{ x: 0, y1: yMin, y2: yMax }] },
+      data: { values: [{ x: 0, y1: e.yMin, y2: e.yMax }] },
       mark: { type: 'rule', color: '#999999', strokeWidth: 1 },
-      encoding: { x: x('x'), y: y('y1'), y2: { field: 'y2' } },
+      encoding: { x: e.x('x'), y: e.y('y1'), y2: { field: 'y2' } },
     },
-    // region labels
-    {
-      data: { values: [{ x: 0, y: yMax, label: `metal (${result.metal})` }] },
-      mark: { ...textBase, align: 'right', baseline: 'top', dx: -6, dy: 6, fontWeight: 'bold' },
-      encoding: { x: x('x'), y: y('y'), text: { field: 'label' } },
+    text(`metal (${result.metal})`, 'right', -6),
+    text(`support (${result.support})`, 'left', 6),
+  ];
+}
+
+/** The level lines, coloured and dashed by series (the localised level only when the support has one). */
+function levelLayer(levels: readonly LevelPoint[], e: Encoders, withLocalised: boolean): Layer {
+  const domain: string[] = [BAND_SERIES.vacuum, BAND_SERIES.conduction, BAND_SERIES.valence, BAND_SERIES.fermi];
+  const colours: string[] = [PALETTE.purple, PALETTE.blue, PALETTE.orange, PALETTE.ink];
+  const dashes: number[][] = [[2, 3], [1, 0], [1, 0], [7, 4]];
+  if (withLocalised) {
+    domain.push(BAND_SERIES.localised);
+    colours.push(PALETTE.brown);
+    dashes.push([4, 2, 1, 2]);
+  }
+  const legend = { title: 'level', orient: 'bottom' as const, direction: 'horizontal' as const, columns: withLocalised ? 3 : 4, labelLimit: 240 };
+  return {
+    data: { values: levels },
+    mark: { type: 'line', strokeWidth: 2, interpolate: 'linear' },
+    encoding: {
+      x: e.x('x_nm'),
+      y: e.y('energy_eV'),
+      order: { field: 'order', type: 'quantitative' },
+      color: { field: 'series', type: 'nominal', scale: { domain, range: colours }, legend },
+      strokeDash: { field: 'series', type: 'nominal', scale: { domain, range: dashes }, legend },
     },
-    {
-      data: { values: [{ x: 0, y: yMax, label: `support (${result.support})` }] },
-      mark: { ...textBase, align: 'left', baseline: 'top', dx: 6, dy: 6, fontWeight: 'bold' },
-      encoding: { x: x('x'), y: y('y'), text: { field: 'label' } },
-    },
-    // energy levels
-    {
-      data: { values: levels },
-      mark: { type: 'line', strokeWidth: 2, interpolate: 'linear' },
-      encoding: {
-        x: x('x_nm'),
-        y: y('energy_eV'),
-        order: { field: 'order', type: 'quantitative' },
-        color: {
-          field: 'series',
-          type: 'nominal',
-          scale: { domain: seriesDomain, range: [PALETTE.purple, PALETTE.blue, PALETTE.orange, PALETTE.ink] },
-          legend: { title: 'level', orient: 'bottom', direction: 'horizontal', columns: 4, labelLimit: 240 },
-        },
-        strokeDash: {
-          field: 'series',
-          type: 'nominal',
-          scale: { domain: seriesDomain, range: [[2, 3], [1, 0], [1, 0], [7, 4]] },
-          legend: { title: 'level', orient: 'bottom', direction: 'horizontal', columns: 4, labelLimit: 240 },
-        },
-      },
-    },
-    // barrier: E_F to the band edge at the interface
-    {
-      data: { values: [{ x: xBarrier, y1: 0, y2: barrierEdge, label: barrierText, ytop: Math.max(0, barrierEdge) }] },
-      layer: [
-        {
-          mark: { type: 'rule', color: PALETTE.red, strokeWidth: 2.5 },
-          encoding: { x: x('x'), y: y('y1'), y2: { field: 'y2' } },
-        },
-        {
-          mark: { ...textBase, align: 'center', baseline: 'bottom', dy: -4 },
-          encoding: { x: x('x'), y: y('ytop'), text: { field: 'label' } },
-        },
-      ],
-    },
-    // band bending: bulk E_C to E_C(0), with a dotted guide at E_C(0)
+  };
+}
+
+/** Barrier (E_F to the band edge at the interface) and band bending (bulk E_C to E_C(0)) annotations. */
+function barrierLayers(result: ContactResult, pts: readonly SupportPoint[], frame: DiagramFrame, e: Encoders): Layer[] {
+  const ec0 = pts[0]!.ec;
+  const hole = result.barrierCarrier === 'hole';
+  const barrierEdge = hole ? pts[0]!.ev : ec0;
+  const barrierText = `${hole ? 'hole barrier' : 'barrier'} ${formatNumber(result.barrierHeight_eV)} eV`;
+  const bendingText = `band bending ${formatSigned(result.bandBending_eV)} eV`;
+  const xBending = frame.at(0.93);
+  return [
+    labelledRule(e, -frame.at(0.125), 0, barrierEdge, barrierText, PALETTE.red, 'center'),
     {
       data: { values: [{ x1: 0, x2: xBending, y: ec0 }] },
       mark: { type: 'rule', color: PALETTE.grey, strokeDash: [1, 3], strokeWidth: 1.5 },
-      encoding: { x: x('x1'), x2: { field: 'x2' }, y: y('y') },
+      encoding: { x: e.x('x1'), x2: { field: 'x2' }, y: e.y('y') },
     },
+    labelledRule(e, xBending, result.fermiLevelBelowConduction_eV, ec0, bendingText, PALETTE.green, 'right'),
+  ];
+}
+
+/** Energy of the charge-neutrality level at the interface relative to E_F, eV (null without interface states). */
+function neutralLevelEnergy(result: ContactResult, pts: readonly SupportPoint[]): number | null {
+  const it = result.interfaceStates;
+  return it === null ? null : pts[0]!.ev + it.neutralLevelAboveValence_eV;
+}
+
+/** The charge-neutrality level as a short teal bar next to the interface, labelled "CNL" (interface-state model only). */
+function interfaceStateLayers(result: ContactResult, pts: readonly SupportPoint[], frame: DiagramFrame, e: Encoders): Layer[] {
+  const level = neutralLevelEnergy(result, pts);
+  if (level === null) return [];
+  return [
     {
-      data: { values: [{ x: xBending, y1: ecBulk, y2: ec0, label: bendingText, ytop: Math.max(ecBulk, ec0) }] },
+      data: { values: [{ x1: 0, x2: frame.at(0.12), y: level, label: 'CNL' }] },
       layer: [
+        { mark: { type: 'rule', color: PALETTE.teal, strokeWidth: 4 }, encoding: { x: e.x('x1'), x2: { field: 'x2' }, y: e.y('y') } },
         {
-          mark: { type: 'rule', color: PALETTE.green, strokeWidth: 2.5 },
-          encoding: { x: x('x'), y: y('y1'), y2: { field: 'y2' } },
-        },
-        {
-          mark: { ...textBase, align: 'right', baseline: 'bottom', dx: 4, dy: -4 },
-          encoding: { x: x('x'), y: y('ytop'), text: { field: 'label' } },
+          mark: { ...TEXT_BASE, align: 'left', baseline: 'bottom', dx: 2, dy: -3, color: '#2a6f6b', fontSize: 10 },
+          encoding: { x: e.x('x1'), y: e.y('y'), text: { field: 'label' } },
         },
       ],
     },
   ];
+}
 
+/**
+ * Subtitle lines of the band diagram: the model, then (when present) the interface-state charge (Q_it / q per nm^2,
+ * + when the states gave electrons to the metal) with the electrons they passed to the particle, and the occupancy
+ * of the localised level in the bulk and at the interface.
+ */
+function diagramSubtitle(result: ContactResult, localised: LocalisedLevelView | null): string[] {
+  const lines = [`energies relative to the Fermi level; ${result.statistics} statistics, ${result.barrierModel} barrier model`];
+  const it = result.interfaceStates;
+  if (it !== null) {
+    const perNm2 = it.interfaceStateCharge_C_per_m2 / Q_ELEMENTARY_C / 1e18;
+    lines.push(
+      `interface states (CNL ${formatNumber(it.neutralLevelAboveValence_eV)} eV above E_V): charge ${formatSigned(perNm2)} q/nm², ` +
+        `${formatSigned(it.electronsFromInterfaceStates)} electrons to the particle`,
+    );
+  }
+  if (localised !== null) {
+    const pct = (f: number) => `${formatNumber(100 * f, 2)}%`;
+    lines.push(
+      `localised level ${formatNumber(localised.depth_eV)} eV below E_C: ${pct(localised.bulkOccupancy)} of the sites occupied in the bulk, ` +
+        `${pct(localised.interfaceOccupancy)} at the interface`,
+    );
+  }
+  return lines;
+}
+
+/**
+ * Band diagram across the metal | support interface. Position x in nm: the metal is a short slab at
+ * x < 0 (Fermi level and vacuum level E_vac = work function), the support at x >= 0 from the profile.
+ * Energies are relative to the Fermi level (E_F = 0). Annotated: the barrier (E_F to E_C(0), or to E_V(0)
+ * for a hole barrier) at the interface, the band bending (bulk E_C to E_C(0)), and when the model has them the
+ * charge-neutrality level with the interface-state charge and the localised level with its occupancy.
+ */
+export function bandDiagramSpec(result: ContactResult, opts: BandDiagramOptions = {}): TopLevelSpec {
+  const pts = supportPoints(result);
+  if (pts.length === 0) throw new Error('bandDiagramSpec: the profile has no finite points');
+  const frame = diagramFrame(pts, opts.logDepth === true);
+  const localised = localisedLevelOf(result);
+  const levels = diagramLevels(result, pts, frame, localised);
+  const cnl = neutralLevelEnergy(result, pts);
+  const energies = [...levels.map((l) => l.energy_eV), ...(cnl === null ? [] : [cnl])];
+  const yMin = Math.floor((Math.min(minOf(energies), 0) - 0.6) * 2) / 2;
+  const yMax = Math.ceil((Math.max(maxOf(energies), result.metalWorkFunction_eV) + 0.8) * 2) / 2;
+  const e = diagramEncoders(frame, yMin, yMax);
+  const layer: Layer[] = [
+    ...frameLayers(result, frame, e),
+    levelLayer(levels, e, localised !== null),
+    ...barrierLayers(result, pts, frame, e),
+    ...interfaceStateLayers(result, pts, frame, e),
+  ];
   return {
     $schema: SCHEMA,
     title: {
       text: `Band diagram: ${result.metal} | ${result.support} at ${formatNumber(result.temperature_K, 4)} K`,
-      subtitle: `energies relative to the Fermi level; ${result.statistics} statistics, ${result.barrierModel} barrier model`,
+      subtitle: diagramSubtitle(result, localised),
     },
-    width,
-    height,
+    width: opts.width ?? 620,
+    height: opts.height ?? 380,
     config: BASE_CONFIG,
     layer,
   };

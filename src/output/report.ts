@@ -9,7 +9,7 @@ import type { InputProvenance } from '../materials/types.js';
 import type { ContactResult, FlowDirection } from '../types.js';
 import { reportCautions } from './cautions.js';
 import { escapeHtml, escapeMarkdownCell, escapeMarkdownText, isSafeBaseName } from './escape.js';
-import { bandDiagramSpec, chargeFieldSpec, prefersLogDepth, type Cell, type Row } from './figures.js';
+import { bandDiagramSpec, chargeFieldSpec, localisedLevelOf, prefersLogDepth, type Cell, type Row } from './figures.js';
 import { svgForInline, writeFigure } from './render.js';
 import {
   barrierLabel,
@@ -167,97 +167,199 @@ function yesNo(v: boolean | null): string {
 
 const DIRECTIONS: FlowDirection[] = ['support-to-metal', 'metal-to-support', 'none'];
 
+/** Builds the rows of one group. */
+function groupRows(group: string): { rows: ResultRow[]; add: (label: string, value: string) => void } {
+  const rows: ResultRow[] = [];
+  return { rows, add: (label, value) => rows.push({ group, label, value }) };
+}
+
+/** Where the barrier model's data came from: the sources of the interface-state / pinning inputs the result used. */
+export function barrierModelSource(result: ContactResult): string {
+  const fields = ['charge-neutrality level (above E_V)', 'charge-neutrality level', 'pinning factor', 'interface-state density', 'barrier (given)'];
+  const used = result.inputs.filter((i) => fields.includes(i.field));
+  if (result.barrierModel === 'ideal') return 'Schottky–Mott rule: metal work function and support electron affinity only';
+  if (used.length === 0) return 'no library data recorded';
+  return used
+    .map((i) => `${i.field} ${formatNumber(i.value, 3)}${i.unit ? ` ${i.unit}` : ''} (${i.citation ?? i.source ?? i.origin}${i.fromMemory ? ', from memory' : ''})`)
+    .join('; ');
+}
+
+function contactRows(result: ContactResult): ResultRow[] {
+  const { rows, add } = groupRows('contact');
+  add('metal | support', `${result.metal} | ${result.support}`);
+  add('temperature', formatQuantity(result.temperature_K, 'K', 4));
+  add('model', `${result.geometry} geometry, ${result.statistics} statistics, ${result.barrierModel} barrier`);
+  add('barrier model data', barrierModelSource(result));
+  return rows;
+}
+
+function barrierRows(result: ContactResult, kT: number): ResultRow[] {
+  const { rows, add } = groupRows('barrier');
+  add(barrierLabel(result), formatQuantity(result.barrierHeight_eV, 'eV'));
+  add('electron barrier E_C(0) - E_F', formatQuantity(result.electronBarrier_eV, 'eV'));
+  add('band bending (+ = up toward interface)', `${formatSigned(result.bandBending_eV)} eV, ${bendingInWords(result.bandBending_eV, kT)}`);
+  const pe = result.photoemission;
+  add(
+    'band bending seen by photoemission',
+    `${formatSigned(pe.observedBandBending_eV)} eV (${pe.coreLevel} at ${formatNumber(pe.photonEnergy_eV, 5)} eV photons, ` +
+      `inelastic mean free path ${formatQuantity(pe.inelasticMeanFreePath_nm, 'nm')})`,
+  );
+  add('direction of electron transfer', `${result.direction}: ${directionInWords(result.direction)}`);
+  add('metal work function', formatQuantity(result.metalWorkFunction_eV, 'eV'));
+  add('support work function', formatQuantity(result.supportWorkFunction_eV, 'eV'));
+  add('bulk E_C - E_F', formatQuantity(result.fermiLevelBelowConduction_eV, 'eV'));
+  add('image-force lowering', formatQuantity(result.imageForceLowering_eV, 'eV'));
+  if (result.pinningFactor !== null) add('pinning factor S', formatNumber(result.pinningFactor));
+  return rows;
+}
+
+/** Interface-state model (Bardeen; Cowley & Sze 1965): only when it was used. */
+function interfaceStateRows(result: ContactResult): ResultRow[] {
+  const it = result.interfaceStates;
+  if (it === null) return [];
+  const { rows, add } = groupRows('interface states');
+  add('density of interface states', formatQuantity(it.stateDensity_per_eV_cm2, 'eV^-1 cm^-2'));
+  add('charge-neutrality level above E_V', formatQuantity(it.neutralLevelAboveValence_eV, 'eV'));
+  add('interfacial layer (thickness, permittivity)', `${formatQuantity(it.layerThickness_nm, 'nm')}, ${formatNumber(it.layerPermittivity)}`);
+  const perCm2 = (q: number) => `${formatSigned(q)} C/m^2 (${formatSigned(q / Q_ELEMENTARY_C / 1e4)} e/cm^2)`;
+  add('interface-state charge (+ = states gave electrons to the metal)', perCm2(it.interfaceStateCharge_C_per_m2));
+  add('metal charge -(space charge + interface states)', perCm2(it.metalCharge_C_per_m2));
+  add('potential step across the layer', formatQuantity(it.layerDrop_eV, 'eV'));
+  add('electrons to the particle from interface states / space charge', `${formatSigned(it.electronsFromInterfaceStates)} / ${formatSigned(it.electronsFromSpaceCharge)}`);
+  return rows;
+}
+
+function spaceChargeRows(result: ContactResult): ResultRow[] {
+  const { rows, add } = groupRows('space charge');
+  const chargePerCm2 = result.spaceCharge_C_per_m2 / Q_ELEMENTARY_C / 1e4;
+  add('space charge (support side)', `${formatSigned(result.spaceCharge_C_per_m2)} C/m^2 (${formatSigned(chargePerCm2)} e/cm^2)`);
+  add('charge-equivalent width', formatQuantity(result.chargeEquivalentWidth_nm, 'nm'));
+  add('depletion width (depletion approximation)', formatQuantity(result.depletionWidthApprox_nm, 'nm'));
+  add('Debye length', formatQuantity(result.debyeLength_nm, 'nm'));
+  add('interface field', formatQuantity(result.interfaceField_V_per_m, 'V/m'));
+  add('donor density', formatQuantity(result.donorDensity_cm3, 'cm^-3'));
+  add('acceptor density', formatQuantity(result.acceptorDensity_cm3, 'cm^-3'));
+  return rows;
+}
+
+function bulkRows(result: ContactResult): ResultRow[] {
+  const { rows, add } = groupRows('bulk');
+  const b = result.bulk;
+  add('electron density', formatQuantity(b.electronDensity_cm3, 'cm^-3'));
+  add('hole density', formatQuantity(b.holeDensity_cm3, 'cm^-3'));
+  add('ionized donors', formatQuantity(b.ionizedDonors_cm3, 'cm^-3'));
+  add('ionized acceptors', formatQuantity(b.ionizedAcceptors_cm3, 'cm^-3'));
+  const localised = localisedLevelOf(result);
+  if (localised !== null) {
+    add(
+      'localised (small-polaron) electrons',
+      `${formatQuantity(b.localisedElectrons_cm3, 'cm^-3')} (${formatNumber(100 * localised.bulkOccupancy, 2)}% of ${formatNumber(localised.sites_cm3)} sites; ` +
+        `${formatNumber(100 * localised.interfaceOccupancy, 2)}% at the interface)`,
+    );
+  }
+  add('N_C / N_V', `${formatNumber(b.conductionDensityOfStates_cm3)} / ${formatNumber(b.valenceDensityOfStates_cm3)} cm^-3`);
+  add('intrinsic density', `10^${formatNumber(b.intrinsicDensityLog10_cm3)} cm^-3`);
+  return rows;
+}
+
+function particleRows(result: ContactResult): ResultRow[] {
+  const { rows, add } = groupRows('particle');
+  const p = result.particle;
+  add('electrons per particle (+ = gained by metal)', formatSigned(result.electronsPerParticle));
+  add('diameter', formatQuantity(p.diameter_nm, 'nm'));
+  add('particle work function (size-corrected)', formatQuantity(result.particleWorkFunction_eV, 'eV'));
+  add('atoms / surface atoms', `${formatNumber(p.atoms)} / ${formatNumber(p.surfaceAtoms)}`);
+  add('dispersion', formatNumber(p.dispersion));
+  add('electrons per surface atom', formatSigned(p.electronsPerSurfaceAtom));
+  add('charging energy', `${formatQuantity(p.chargingEnergy_eV, 'eV')} (${formatNumber(p.chargingEnergyOverKT)} kT)`);
+  if (p.particleDensity_cm2 !== null || p.meanSpacing_nm !== null || p.zonesOverlap !== null) {
+    add('particle density', formatQuantity(p.particleDensity_cm2, 'cm^-2'));
+    add('mean spacing', formatQuantity(p.meanSpacing_nm, 'nm'));
+    add('space-charge zones overlap', yesNo(p.zonesOverlap));
+  }
+  return rows;
+}
+
+function exchangeRows(result: ContactResult): ResultRow[] {
+  const { rows, add } = groupRows('exchange');
+  const e = result.exchange;
+  if (!e) {
+    add('equilibration time', 'not computed');
+    return rows;
+  }
+  add('Richardson constant', formatQuantity(e.richardsonConstant_A_per_cm2_K2, 'A/(cm^2 K^2)'));
+  add('exchange current density', formatLogQuantity(e.exchangeCurrentDensity_A_per_cm2, e.exchangeCurrentLog10_A_per_cm2, 'A/cm^2'));
+  add(
+    'equilibration time (thermionic exchange)',
+    formatLogQuantity(e.equilibrationTime_s, e.equilibrationTimeLog10_s, 's') + (e.slow ? ' — slow: more than an hour' : ''),
+  );
+  return rows;
+}
+
+function atmosphereRows(result: ContactResult): ResultRow[] {
+  const { rows, add } = groupRows('reaction atmosphere');
+  const d = result.defects as ContactResult['defects'] | undefined; // absent in results written before issue 12
+  if (d === undefined || d.history === 'none') return rows;
+  add('vacancy history', d.history);
+  add(`reaction gas ${d.reactionGas ?? ''}`, formatNumber(d.reactionGasValue));
+  add('equilibrium pO2', `10^${formatNumber(d.log10OxygenPartialPressure_bar, 4)} bar`);
+  add('vacancies (donors used)', formatQuantity(d.vacancies_cm3, 'cm^-3'));
+  add('vacancies in equilibrium with the gas', formatQuantity(d.equilibriumVacancies_cm3, 'cm^-3'));
+  add('re-equilibration time d^2/D', d.reequilibrationTime_s === null ? 'no diffusion coefficient' : formatQuantity(d.reequilibrationTime_s, 's'));
+  return rows;
+}
+
+function pretreatmentRows(result: ContactResult): ResultRow[] {
+  const { rows, add } = groupRows('pretreatment');
+  const t = result.pretreatment;
+  add('mode', t.mode);
+  add('reduction temperature', formatQuantity(t.reductionTemperature_K, 'K', 4));
+  add('oxygen pressure', formatQuantity(t.oxygenPressure_Pa, 'Pa'));
+  add('H2/H2O ratio', formatNumber(t.hydrogenToWater));
+  add('vacancy density', formatQuantity(t.vacancyDensity_cm3, 'cm^-3'));
+  add('vacancy equilibration temperature', formatQuantity(t.equilibrationTemperature_K, 'K', 4));
+  return rows;
+}
+
+function uncertaintyRows(result: ContactResult): ResultRow[] {
+  const u = result.uncertainty;
+  if (!u) return [];
+  const { rows, add } = groupRows('uncertainty');
+  const pct = (q: { p05: number; p50: number; p95: number }, unit: string) =>
+    `${formatNumber(q.p05)} / ${formatNumber(q.p50)} / ${formatNumber(q.p95)}${unit ? ` ${unit}` : ''}`;
+  add('samples (failed) / seed', `${u.samples} (${u.failed}) / ${u.seed}`);
+  add('direction probability', DIRECTIONS.map((d) => `${d} ${formatNumber(u.directionProbability[d] ?? 0, 2)}`).join(', '));
+  add('barrier 5 / 50 / 95 %', pct(u.barrierHeight_eV, 'eV'));
+  add('band bending 5 / 50 / 95 %', pct(u.bandBending_eV, 'eV'));
+  add('electrons per particle 5 / 50 / 95 %', pct(u.electronsPerParticle, ''));
+  return rows;
+}
+
+function solverRows(result: ContactResult): ResultRow[] {
+  const { rows, add } = groupRows('solver');
+  const s = result.solver;
+  add('Newton iterations', String(s.iterations));
+  add('mesh points / domain', `${s.meshPoints} / ${formatQuantity(s.domainLength_nm, 'nm')}`);
+  add('charge error estimate (Richardson, relative)', formatNumber(s.chargeErrorEstimate));
+  return rows;
+}
+
 /** The results of one contact as grouped label/value rows (plain text, escaped on output). */
 export function contactResultRows(result: ContactResult): ResultRow[] {
-  const rows: ResultRow[] = [];
-  const add = (group: string, label: string, value: string) => rows.push({ group, label, value });
   const kT = thermalEnergy_eV(result.temperature_K);
-  const chargePerCm2 = result.spaceCharge_C_per_m2 / Q_ELEMENTARY_C / 1e4;
-
-  add('contact', 'metal | support', `${result.metal} | ${result.support}`);
-  add('contact', 'temperature', formatQuantity(result.temperature_K, 'K', 4));
-  add('contact', 'model', `${result.geometry} geometry, ${result.statistics} statistics, ${result.barrierModel} barrier`);
-  add('barrier', barrierLabel(result), formatQuantity(result.barrierHeight_eV, 'eV'));
-  add('barrier', 'electron barrier E_C(0) - E_F', formatQuantity(result.electronBarrier_eV, 'eV'));
-  add('barrier', 'band bending (+ = up toward interface)', `${formatSigned(result.bandBending_eV)} eV, ${bendingInWords(result.bandBending_eV, kT)}`);
-  add('barrier', 'direction of electron transfer', `${result.direction}: ${directionInWords(result.direction)}`);
-  add('barrier', 'metal work function', formatQuantity(result.metalWorkFunction_eV, 'eV'));
-  add('barrier', 'support work function', formatQuantity(result.supportWorkFunction_eV, 'eV'));
-  add('barrier', 'bulk E_C - E_F', formatQuantity(result.fermiLevelBelowConduction_eV, 'eV'));
-  add('barrier', 'image-force lowering', formatQuantity(result.imageForceLowering_eV, 'eV'));
-  add('space charge', 'space charge (support side)', `${formatSigned(result.spaceCharge_C_per_m2)} C/m^2 (${formatSigned(chargePerCm2)} e/cm^2)`);
-  add('space charge', 'charge-equivalent width', formatQuantity(result.chargeEquivalentWidth_nm, 'nm'));
-  add('space charge', 'depletion width (depletion approximation)', formatQuantity(result.depletionWidthApprox_nm, 'nm'));
-  add('space charge', 'Debye length', formatQuantity(result.debyeLength_nm, 'nm'));
-  add('space charge', 'interface field', formatQuantity(result.interfaceField_V_per_m, 'V/m'));
-  add('space charge', 'donor density', formatQuantity(result.donorDensity_cm3, 'cm^-3'));
-  add('space charge', 'acceptor density', formatQuantity(result.acceptorDensity_cm3, 'cm^-3'));
-  add('bulk', 'electron density', formatQuantity(result.bulk.electronDensity_cm3, 'cm^-3'));
-  add('bulk', 'hole density', formatQuantity(result.bulk.holeDensity_cm3, 'cm^-3'));
-  add('bulk', 'ionized donors', formatQuantity(result.bulk.ionizedDonors_cm3, 'cm^-3'));
-  add('bulk', 'ionized acceptors', formatQuantity(result.bulk.ionizedAcceptors_cm3, 'cm^-3'));
-  add('bulk', 'N_C / N_V', `${formatNumber(result.bulk.conductionDensityOfStates_cm3)} / ${formatNumber(result.bulk.valenceDensityOfStates_cm3)} cm^-3`);
-  add('bulk', 'intrinsic density', `10^${formatNumber(result.bulk.intrinsicDensityLog10_cm3)} cm^-3`);
-
-  const p = result.particle;
-  add('particle', 'electrons per particle (+ = gained by metal)', formatSigned(result.electronsPerParticle));
-  add('particle', 'diameter', formatQuantity(p.diameter_nm, 'nm'));
-  add('particle', 'atoms / surface atoms', `${formatNumber(p.atoms)} / ${formatNumber(p.surfaceAtoms)}`);
-  add('particle', 'dispersion', formatNumber(p.dispersion));
-  add('particle', 'electrons per surface atom', formatSigned(p.electronsPerSurfaceAtom));
-  add('particle', 'charging energy', `${formatQuantity(p.chargingEnergy_eV, 'eV')} (${formatNumber(p.chargingEnergyOverKT)} kT)`);
-  if (p.particleDensity_cm2 !== null || p.meanSpacing_nm !== null || p.zonesOverlap !== null) {
-    add('particle', 'particle density', formatQuantity(p.particleDensity_cm2, 'cm^-2'));
-    add('particle', 'mean spacing', formatQuantity(p.meanSpacing_nm, 'nm'));
-    add('particle', 'space-charge zones overlap', yesNo(p.zonesOverlap));
-  }
-
-  if (result.exchange) {
-    const e = result.exchange;
-    add('exchange', 'Richardson constant', formatQuantity(e.richardsonConstant_A_per_cm2_K2, 'A/(cm^2 K^2)'));
-    add('exchange', 'exchange current density', formatLogQuantity(e.exchangeCurrentDensity_A_per_cm2, e.exchangeCurrentLog10_A_per_cm2, 'A/cm^2'));
-    add(
-      'exchange',
-      'equilibration time (thermionic exchange)',
-      formatLogQuantity(e.equilibrationTime_s, e.equilibrationTimeLog10_s, 's') + (e.slow ? ' — slow: more than an hour' : ''),
-    );
-  } else {
-    add('exchange', 'equilibration time', 'not computed');
-  }
-
-  const t = result.pretreatment;
-  add('pretreatment', 'mode', t.mode);
-  add('pretreatment', 'reduction temperature', formatQuantity(t.reductionTemperature_K, 'K', 4));
-  add('pretreatment', 'oxygen pressure', formatQuantity(t.oxygenPressure_Pa, 'Pa'));
-  add('pretreatment', 'H2/H2O ratio', formatNumber(t.hydrogenToWater));
-  add('pretreatment', 'vacancy density', formatQuantity(t.vacancyDensity_cm3, 'cm^-3'));
-  add('pretreatment', 'vacancy equilibration temperature', formatQuantity(t.equilibrationTemperature_K, 'K', 4));
-  const d = result.defects as ContactResult['defects'] | undefined; // absent in results written before issue 12
-  if (d !== undefined && d.history !== 'none') {
-    add('reaction atmosphere', 'vacancy history', d.history);
-    add('reaction atmosphere', `reaction gas ${d.reactionGas ?? ''}`, formatNumber(d.reactionGasValue));
-    add('reaction atmosphere', 'equilibrium pO2', `10^${formatNumber(d.log10OxygenPartialPressure_bar, 4)} bar`);
-    add('reaction atmosphere', 'vacancies (donors used)', formatQuantity(d.vacancies_cm3, 'cm^-3'));
-    add('reaction atmosphere', 'vacancies in equilibrium with the gas', formatQuantity(d.equilibriumVacancies_cm3, 'cm^-3'));
-    add('reaction atmosphere', 're-equilibration time d^2/D', d.reequilibrationTime_s === null ? 'no diffusion coefficient' : formatQuantity(d.reequilibrationTime_s, 's'));
-  }
-
-  if (result.uncertainty) {
-    const u = result.uncertainty;
-    const pct = (q: { p05: number; p50: number; p95: number }, unit: string) =>
-      `${formatNumber(q.p05)} / ${formatNumber(q.p50)} / ${formatNumber(q.p95)}${unit ? ` ${unit}` : ''}`;
-    add('uncertainty', 'samples (failed) / seed', `${u.samples} (${u.failed}) / ${u.seed}`);
-    add('uncertainty', 'direction probability', DIRECTIONS.map((d) => `${d} ${formatNumber(u.directionProbability[d] ?? 0, 2)}`).join(', '));
-    add('uncertainty', 'barrier 5 / 50 / 95 %', pct(u.barrierHeight_eV, 'eV'));
-    add('uncertainty', 'band bending 5 / 50 / 95 %', pct(u.bandBending_eV, 'eV'));
-    add('uncertainty', 'electrons per particle 5 / 50 / 95 %', pct(u.electronsPerParticle, ''));
-  }
-
-  const s = result.solver;
-  add('solver', 'Newton iterations', String(s.iterations));
-  add('solver', 'mesh points / domain', `${s.meshPoints} / ${formatQuantity(s.domainLength_nm, 'nm')}`);
-  add('solver', 'charge error estimate (Richardson, relative)', formatNumber(s.chargeErrorEstimate));
-  return rows;
+  return [
+    ...contactRows(result),
+    ...barrierRows(result, kT),
+    ...interfaceStateRows(result),
+    ...spaceChargeRows(result),
+    ...bulkRows(result),
+    ...particleRows(result),
+    ...exchangeRows(result),
+    ...pretreatmentRows(result),
+    ...atmosphereRows(result),
+    ...uncertaintyRows(result),
+    ...solverRows(result),
+  ];
 }
 
 /** Input provenance as table rows: field, value, unit, range, origin, citation, note, check. */
