@@ -76,13 +76,13 @@ async function waitForRender(page: Page, after: number): Promise<void> {
 /** Headline numbers as shown: result path -> text. */
 async function shownNumbers(page: Page): Promise<Record<string, string>> {
   return page.evaluate(() =>
-    Object.fromEntries([...document.querySelectorAll<HTMLElement>('#headline dd[data-path]')].map((dd) => [dd.dataset['path']!, dd.querySelector('.value')!.textContent!])),
+    Object.fromEntries(Array.from(document.querySelectorAll<HTMLElement>('#headline dd[data-path]')).map((dd) => [dd.dataset['path']!, dd.querySelector('.value')!.textContent!])),
   );
 }
 
 async function fieldValues(page: Page): Promise<Record<string, string>> {
   return page.evaluate(() =>
-    Object.fromEntries([...document.querySelectorAll<HTMLElement>('.control')].map((c) => [c.dataset['option']!, (c.querySelector('input[type=text], select') as HTMLInputElement).value])),
+    Object.fromEntries(Array.from(document.querySelectorAll<HTMLElement>('.control')).map((c) => [c.dataset['option']!, (c.querySelector('input[type=text], select') as HTMLInputElement).value])),
   );
 }
 
