@@ -128,6 +128,15 @@ function buildControl(p: ParameterRow, catalog: Catalog): Control {
     u.textContent = unit;
     entry.append(u);
   }
+  if (field instanceof HTMLInputElement) {
+    const clear = document.createElement('button');
+    clear.type = 'button';
+    clear.className = 'clear';
+    clear.textContent = '×';
+    clear.title = 'leave out: use the library value or the default';
+    clear.setAttribute('aria-label', `leave out ${rowTitle(p)}`);
+    entry.append(clear);
+  }
   const range = document.createElement('div');
   range.className = 'range';
   range.textContent = rangeText(p);

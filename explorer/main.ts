@@ -78,6 +78,10 @@ function wireControls(): void {
   for (const c of controls.values()) {
     if (c.field instanceof HTMLSelectElement) c.field.addEventListener('change', () => onInput(true));
     else c.field.addEventListener('input', () => onInput(false));
+    c.root.querySelector('.clear')?.addEventListener('click', () => {
+      c.field.value = '';
+      onInput(true);
+    });
     c.slider?.addEventListener('input', () => {
       c.field.value = String(sliderToValue(c.scale!, Number(c.slider!.value)));
       onInput(true);

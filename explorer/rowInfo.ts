@@ -84,24 +84,36 @@ function libraryInfo(p: ParameterRow, pv: PropertyValue | undefined, lib: Materi
   };
 }
 
+/** Inputs the solve derives without a provenance entry of their own, read from the result. */
+const DERIVED_USED: Partial<Record<OptionName, (r: ContactResult) => number | undefined>> = {
+  interfaceStateDensity: (r) => r.interfaceStates?.stateDensity_per_eV_cm2,
+};
+
+function usedOf(p: ParameterRow, result: ContactResult | undefined, recs: LibraryRecords): RowInfo['used'] {
+  const used = provenanceOf(p, result, recs);
+  if (used !== undefined) {
+    return {
+      value: used.value,
+      unit: used.unit,
+      origin: used.origin,
+      ...(used.citation !== undefined ? { citation: used.citation } : {}),
+      ...(used.fromMemory !== undefined ? { fromMemory: used.fromMemory } : {}),
+    };
+  }
+  const derived = result !== undefined ? DERIVED_USED[p.option]?.(result) : undefined;
+  return derived !== undefined ? { value: derived, unit: displayUnitOf(p).unit, origin: 'derived' } : undefined;
+}
+
 /** One RowInfo per table row, for the inputs given and (when the solve worked) its result. */
 export function rowInfos(inputs: InputValues, result: ContactResult | undefined, lib: MaterialsLibrary): RowInfo[] {
   const recs = records(inputs, lib);
   const c = new PageContext(recs, inputs, result);
   return PARAMETERS.map((p) => {
     const applicable = p.when === undefined || attempt(() => p.when!.test(c)) !== false;
-    const used = provenanceOf(p, result, recs);
+    const used = usedOf(p, result, recs);
     const library = libraryInfo(p, attempt(() => p.library?.(recs, c)), lib);
     const info: RowInfo = { option: p.option, applicable };
-    if (used !== undefined) {
-      info.used = {
-        value: used.value,
-        unit: used.unit,
-        origin: used.origin,
-        ...(used.citation !== undefined ? { citation: used.citation } : {}),
-        ...(used.fromMemory !== undefined ? { fromMemory: used.fromMemory } : {}),
-      };
-    }
+    if (used !== undefined) info.used = used;
     if (library !== undefined) info.library = library;
     return info;
   });

@@ -133,14 +133,18 @@ export function spreadLabels(ys: readonly number[], gap = 12): number[] {
   return out;
 }
 
-/** The interface-state mark (charge-neutrality level and its charge) at the interface. */
-function interfaceMark(svg: SVGSVGElement, result: ContactResult, x: Scale, y: Scale, ev0: number): void {
+/** The interface-state mark (charge-neutrality level) at the interface, and their charge written in the widest
+ * empty stretch of the gap (between E_F and the nearer band edge in the bulk). */
+function interfaceMark(svg: SVGSVGElement, result: ContactResult, x: Scale, y: Scale, ev0: number, bulk: { ec: number; ev: number }): void {
   const states = result.interfaceStates;
   if (states === null) return;
   const cnl = ev0 + states.neutralLevelAboveValence_eV;
   svg.append(el('line', { x1: x(0), x2: x(0) + 22, y1: y(cnl), y2: y(cnl), class: 'level cnl' }));
-  const text = `CNL · interface states Q_it = ${formatNumber(states.interfaceStateCharge_C_per_m2, 3)} C/m²`;
-  svg.append(el('text', { x: x(0) + 26, y: y(cnl) + 14, class: 'level-label cnl' }, text));
+  svg.append(el('text', { x: x(0) - 4, y: y(cnl) + 4, class: 'level-label cnl', 'text-anchor': 'end' }, 'CNL'));
+  const yText = bulk.ec > -bulk.ev ? bulk.ec / 2 : bulk.ev / 2;
+  const [x0, x1] = x.domain;
+  const text = `interface states: Q_it = ${formatNumber(states.interfaceStateCharge_C_per_m2, 3)} C/m², ${formatNumber(states.electronsFromInterfaceStates, 3)} e⁻ per particle`;
+  svg.append(el('text', { x: x(x0 + 0.3 * (x1 - x0)), y: y(yText), class: 'note cnl-note' }, text));
 }
 
 /** One line under the diagram: barrier, band bending and (with interface states) the charge they hold. */
@@ -182,7 +186,7 @@ export function renderBandDiagram(host: HTMLElement, result: ContactResult): voi
   const labelY = spreadLabels(labelled.map((l) => y(l.ys[l.ys.length - 1]!) + 4));
   for (const level of levels) svg.append(line(xs, level.ys, x, y, { class: `level ${level.cls}` }));
   labelled.forEach((level, i) => svg.append(el('text', { x: f.width - f.right + 4, y: labelY[i]!, class: `level-label ${level.cls}` }, level.label)));
-  interfaceMark(svg, result, x, y, levels[2]!.ys[0]!);
+  interfaceMark(svg, result, x, y, levels[2]!.ys[0]!, { ec: levels[1]!.ys[n - 1]!, ev: levels[2]!.ys[n - 1]! });
   const caption = document.createElement('p');
   caption.className = 'caption';
   caption.textContent = diagramCaption(result);

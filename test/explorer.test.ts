@@ -159,6 +159,11 @@ describe('explorer page in Chromium', () => {
     expect(await shownNumbers(again.page)).toEqual(shown);
 
     mkdirSync(OUTPUT_DIR, { recursive: true });
+    await page.evaluate(() => {
+      window.scrollTo(0, 0);
+      document.getElementById('controls')!.scrollTo(0, 0);
+    });
+    await page.mouse.move(700, 990);
     const shot = join(OUTPUT_DIR, 'explorer.png');
     await page.screenshot({ path: shot, fullPage: false });
     if (process.env['BANDBEND_DOCS_SCREENSHOT'] === '1') copyFileSync(shot, join(ROOT, 'docs', 'explorer.png'));
