@@ -43,19 +43,20 @@ export interface SliderScale {
   log: boolean;
 }
 
-/** Slider span of a numeric row in its display unit; log for densities and anything spanning 4+ decades. */
+/** Slider span of a numeric row in its display unit; log for densities and anything spanning 3+ decades. */
 export function sliderScale(p: ParameterRow): SliderScale | undefined {
   if (p.limits === undefined || (p.kind !== 'quantity' && p.kind !== 'integer')) return undefined;
   const lo = toDisplay(p, p.limits[0]);
   const hi = toDisplay(p, p.limits[1]);
-  const log = (p.quantity !== undefined && LOG_KINDS.has(p.quantity)) || (lo > 0 && hi / lo >= 1e4);
+  const log = (p.quantity !== undefined && LOG_KINDS.has(p.quantity)) || (lo > 0 && hi / lo >= 1e3);
   return { lo: log && lo <= 0 ? hi / 1e13 : lo, hi, log };
 }
 
-export function sliderToValue(s: SliderScale, position: number): number {
+/** The text a slider position puts in the field: 3 significant digits, "6.31e17" style for large and small values. */
+export function sliderToValue(s: SliderScale, position: number): string {
   const t = position / SLIDER_STEPS;
   const v = s.log ? 10 ** (Math.log10(s.lo) + t * (Math.log10(s.hi) - Math.log10(s.lo))) : s.lo + t * (s.hi - s.lo);
-  return Number(v.toPrecision(3));
+  return formatNumber(v, 3);
 }
 
 export function valueToSlider(s: SliderScale, value: number): number {

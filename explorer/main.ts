@@ -83,7 +83,7 @@ function wireControls(): void {
       onInput(true);
     });
     c.slider?.addEventListener('input', () => {
-      c.field.value = String(sliderToValue(c.scale!, Number(c.slider!.value)));
+      c.field.value = sliderToValue(c.scale!, Number(c.slider!.value));
       onInput(true);
     });
   }
@@ -93,6 +93,7 @@ function onSolved(message: Solved): void {
   if (message.id < renderedId) return;
   renderedId = message.id;
   lastResult = message;
+  document.querySelector('.views')!.classList.remove('stale');
   const r = message.result;
   renderHeadline($('headline'), r);
   renderBandDiagram($('band'), r);
@@ -112,6 +113,7 @@ function onFailed(message: Failed): void {
   if (message.id < renderedId) return;
   renderedId = message.id;
   lastResult = undefined;
+  document.querySelector('.views')!.classList.add('stale'); // the views show the last inputs that solved
   showRowInfo(controls, message.rows, state.inputs);
   const row = PAGE_ROWS.find((p) => flagName(p) === message.field || p.option === message.field);
   for (const c of controls.values()) c.root.classList.toggle('refused', c.row === row);

@@ -113,6 +113,10 @@ describe('explorer page in Chromium', () => {
     await page.locator('[data-option=temperature] input[type=range]').fill('300');
     await waitForRender(page, before);
     before = await rendered(page);
+    // the donor slider is logarithmic: 10^(10 + 13 t) cm^-3 over 1e10..1e23 (the row's limit), t = 0.6 -> 6.31e17
+    await page.locator('[data-option=donors] input[type=range]').fill('600');
+    await waitForRender(page, before);
+    before = await rendered(page);
     await page.locator('#in-particleDiameter').fill('5');
     await waitForRender(page, before);
     before = await rendered(page);
@@ -121,10 +125,12 @@ describe('explorer page in Chromium', () => {
     const fields = await fieldValues(page);
     expect(Number(fields['temperature'])).toBeGreaterThan(50);
     expect(fields['particleDiameter']).toBe('5');
+    expect(fields['donors']).toBe('6.31e17');
 
     const command = (await page.locator('#command').textContent())!;
     expect(command).toContain('--temperature');
     expect(command).toContain("--particle-diameter '5 nm'");
+    expect(command).toContain("--donors '6.31e17 cm^-3'");
     const cli = runCommand(command, '--json');
     expect(cli.status, cli.stderr).toBe(0);
     const json = JSON.parse(cli.stdout) as Record<string, unknown>;
