@@ -20,6 +20,7 @@ import type { Browser, Page } from 'playwright-core';
 import { launchBrowser } from './support/browser.js';
 import { serveExplorer, type RunningExplorer } from '../src/cli/exploreServer.js';
 import { formatNumber } from '../src/output/format.js';
+import { commandLine, fromQuery, toQuery, type SweepSettings } from '../explorer/share.js';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
 const OUTPUT_DIR = join(ROOT, 'test-output', 'explorer');
@@ -216,6 +217,32 @@ describe('explorer page in Chromium', () => {
     });
     expect(problems).toEqual([]);
     await page.close();
+  });
+});
+
+describe('shareable state (no browser)', () => {
+  const sweep: SweepSettings = { option: 'temperature', from: 300, to: 700, points: 9, log: false, output: 'electronsPerParticle' };
+  const inputs = {
+    metal: 'Pt',
+    support: 'ZnO',
+    workFunctionShift: '0.1',
+    workFunctionShiftSource: `Kelvin probe, batch 'K7' "dried" $HOME; \\ & | * ?`,
+    temperature: '200 degC',
+    donors: '3e17',
+  };
+
+  it('the command line survives the shell: bash hands the CLI exactly the typed text (checked in its provenance)', () => {
+    const cli = runCommand(commandLine(inputs), '--json');
+    expect(cli.status, cli.stderr).toBe(0);
+    const json = JSON.parse(cli.stdout) as { inputs: { field: string; value: number; note?: string }[]; temperature_K: number; donorDensity_cm3: number };
+    expect(json.inputs.find((i) => i.field === 'work-function shift')?.note).toBe(`source: ${inputs.workFunctionShiftSource}`);
+    expect(json.temperature_K).toBeCloseTo(473.15, 9); // 200 degC, the Celsius scale's definition
+    expect(json.donorDensity_cm3).toBeCloseTo(3e17, -10); // a bare number took the row's display unit, cm^-3
+  });
+
+  it('the URL query round-trips every input and the sweep', () => {
+    const state = fromQuery(toQuery({ inputs, sweep }), { ...sweep, option: 'donors' });
+    expect(state).toEqual({ inputs, sweep });
   });
 });
 

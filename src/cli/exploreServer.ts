@@ -129,12 +129,13 @@ export function exportExplorer(out: string, force: boolean): string {
   return dir;
 }
 
-/** Open the URL with xdg-open when it is on the PATH; never fails (the address is printed anyway). */
+/** Open the URL with xdg-open (`open` on macOS) when it is on the PATH; never fails (the address is printed anyway). */
 export function openBrowser(url: string): void {
+  const program = process.platform === 'darwin' ? 'open' : 'xdg-open';
   const opener = (process.env['PATH'] ?? '')
     .split(delimiter)
     .filter((d) => d !== '')
-    .map((d) => join(d, 'xdg-open'))
+    .map((d) => join(d, program))
     .find((p) => {
       try {
         accessSync(p, constants.X_OK);
