@@ -275,6 +275,12 @@ describe('explore command', () => {
     expect(second.stderr.trim().split('\n')).toHaveLength(1);
     expect(second.stderr).toContain('--out');
     expect(runCli(['explore', '--out', out, '--force']).status).toBe(0);
+    // flags of the other mode are refused, not ignored
+    for (const args of [['--out', out, '--force', '--port', '8000'], ['--force', '--no-open']]) {
+      const r = runCli(['explore', ...args]);
+      expect(r.status, args.join(' ')).toBe(2);
+      expect(r.stderr.trim().split('\n')).toHaveLength(1);
+    }
 
     // the copy is servable as it is: the page loads from it and solves
     const copy = await serveExplorer({ port: 0, root: out, signals: false });

@@ -10,6 +10,7 @@ Examples:
 
 async function runExplore(opts: Record<string, unknown>): Promise<void> {
   const server = await import('./exploreServer.js');
+  server.checkExploreFlags(opts);
   if (typeof opts['out'] === 'string') {
     const dir = server.exportExplorer(opts['out'], opts['force'] === true);
     process.stdout.write(`explorer page written to ${dir} (serve the folder with any static web server; index.html is the page)\n`);
@@ -26,7 +27,7 @@ export function registerExplore(program: Command): void {
   program
     .command('explore')
     .description('the explorer page: sliders, live band diagram and sweeps in the browser (served on 127.0.0.1)')
-    .option('--port <N>', 'port on 127.0.0.1 (0 = any free port)', '0')
+    .option('--port <N>', 'port on 127.0.0.1 (default: 0 = any free port)')
     .option('--no-open', 'do not open the system browser')
     .option('--out <DIR>', 'copy the built page to DIR instead of serving it')
     .option('--force', 'with --out: write into a non-empty DIR')

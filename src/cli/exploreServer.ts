@@ -83,6 +83,14 @@ export interface RunningExplorer {
   closed: Promise<void>;
 }
 
+/** Flags that only apply to serving, or only to --out, are refused in the other mode (nothing silently ignored). */
+export function checkExploreFlags(opts: Record<string, unknown>): void {
+  const out = typeof opts['out'] === 'string';
+  if (out && opts['port'] !== undefined) throw new InputError('--port', 'only used when serving the page (without --out)', 'leave out --port');
+  if (out && opts['open'] === false) throw new InputError('--no-open', 'only used when serving the page (without --out)', 'leave out --no-open');
+  if (!out && opts['force'] === true) throw new InputError('--force', 'only used with --out DIR', 'leave out --force');
+}
+
 /** --port: a whole number 0-65535 (0 = any free port). */
 export function parsePort(value: unknown): number {
   const text = String(value ?? '0').trim();
@@ -121,6 +129,10 @@ export function serveExplorer(options: { port: number; root?: string; signals?: 
 /** Copy the built page to `out` (created if missing); a non-empty folder is refused unless `force`. */
 export function exportExplorer(out: string, force: boolean): string {
   const root = explorerRoot();
+  const target = resolve(out);
+  if (target === root || target.startsWith(root + sep) || root.startsWith(target + sep)) {
+    throw new InputError('--out', `${out} overlaps the built page folder ${root}`, 'a folder outside it');
+  }
   if (existsSync(out) && statSync(out).isDirectory() && readdirSync(out).length > 0 && !force) {
     throw new InputError('--out', `folder ${out} is not empty`, 'a new or empty folder, or add --force to write into it');
   }
