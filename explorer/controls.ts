@@ -186,7 +186,10 @@ export function buildControls(host: HTMLElement, catalog: Catalog): Map<string, 
 /** Put the inputs into the fields (and sliders). */
 export function setFields(controls: Map<string, Control>, inputs: InputValues): void {
   for (const [option, c] of controls) {
-    c.field.value = inputs[option] ?? '';
+    const value = inputs[option] ?? '';
+    // a name the list does not spell that way (an alias such as "ceria"): offered as it was given
+    if (c.field instanceof HTMLSelectElement && value !== '' && !Array.from(c.field.options).some((o) => o.value === value)) c.field.append(new Option(value, value));
+    c.field.value = value;
     if (c.slider && c.scale && inputs[option] !== undefined && Number.isFinite(Number(inputs[option]))) c.slider.value = String(valueToSlider(c.scale, Number(inputs[option])));
   }
 }

@@ -39,6 +39,7 @@ let solveId = 0;
 let sweepId = 0;
 let renderedId = 0;
 let inputAt: number | undefined;
+let postedInputs = '';
 let frameRequested = false;
 let typingTimer: ReturnType<typeof setTimeout> | undefined;
 let sweepTimer: ReturnType<typeof setTimeout> | undefined;
@@ -54,7 +55,10 @@ function commit(): void {
   state = { inputs: readFields(controls), sweep: readSweepForm() };
   history.replaceState(null, '', toQuery(state));
   $('command').textContent = commandLine(state.inputs);
-  post({ type: 'solve', id: ++solveId, inputs: state.inputs });
+  const key = JSON.stringify(state.inputs);
+  if (key !== postedInputs) post({ type: 'solve', id: ++solveId, inputs: state.inputs });
+  else inputAt = undefined; // only the sweep changed: no new diagram to wait for
+  postedInputs = key;
   clearTimeout(sweepTimer);
   sweepTimer = setTimeout(requestSweep, SWEEP_PAUSE_MS);
 }
