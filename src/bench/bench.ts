@@ -71,6 +71,7 @@ import { loadLibrary } from '../materials/load.js';
 import type { MaterialsLibrary } from '../materials/types.js';
 import { runScreen } from '../screen.js';
 import { benchStudyJobs, type StudyJobsBench } from '../study/benchStudy.js';
+import { benchExplorer, type ExplorerBench } from './explorerBench.js';
 import { runStudy } from '../study/runner.js';
 import { parseStudy } from '../study/studyFile.js';
 import type { Statistics } from '../types.js';
@@ -237,6 +238,7 @@ interface ScalingPoint {
 }
 
 interface BenchSummary {
+  explorer: ExplorerBench;
   planarSolve_us_median: number;
   hemisphereSolve_us_median: number;
   planarSolve_us_median_boltzmann: number;
@@ -842,6 +844,7 @@ async function main(): Promise<void> {
   const screen = quick ? { stats: { median: 0 } } : benchScreen();
   const startup = benchStartup();
   const jobs = await benchJobs(quick);
+  const explorer = await benchExplorer(); // the explorer page in Chromium: input -> band diagram (explorerBench.ts)
   const study = quick ? { jobs1: [{ wall_s: 0, cpuPerWall: 0 }], jobs2: [{ wall_s: 0, cpuPerWall: 0 }], startup2: 0, failed: 0 } : await benchStudy();
 
   const relErrors = accuracy.map((c) => c.relError);
@@ -892,6 +895,7 @@ async function main(): Promise<void> {
     scalingExponent: round(scalingExponent, 3),
     breakdown_us: breakdown,
     breakdownHemisphere_us: breakdownHemisphere,
+    explorer,
     targets: {},
     node: process.version,
     cpus: cpus().length,

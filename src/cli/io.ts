@@ -1,9 +1,14 @@
 // Small helpers shared by the commands: JSON on stdout, bounded reads of input files.
 import { MAX_INPUT_FILE_BYTES, readTextFile } from '../inputs/files.js';
 
+/** The JSON text the CLI prints (also the explorer page's downloads); non-finite numbers become null. */
+export function jsonText(value: unknown): string {
+  return `${JSON.stringify(value, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2)}\n`;
+}
+
 /** One JSON document on stdout; non-finite numbers become null. */
 export function writeJson(value: unknown): void {
-  process.stdout.write(`${JSON.stringify(value, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2)}\n`);
+  process.stdout.write(jsonText(value));
 }
 
 /** Extra materials files given with --materials, if any. */

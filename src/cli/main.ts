@@ -9,6 +9,7 @@ import { registerMottSchottky } from './mottSchottky.js';
 import { registerDemo } from './demo.js';
 import { registerMaterials } from './materials.js';
 import { registerValidate } from './validate.js';
+import { registerExplore } from './explore.js';
 
 export { readInputFile } from './io.js';
 
@@ -28,6 +29,7 @@ function buildProgram(): Command {
   registerDemo(program);
   registerMaterials(program);
   registerValidate(program);
+  registerExplore(program);
   return program;
 }
 
