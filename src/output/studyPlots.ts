@@ -2,7 +2,7 @@
 import { readFileSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { sweptColumn, isNumericField, axisLength, type Study } from '../study/studyFile.js';
-import { RESULT_FILES } from '../study/runner.js';
+import { RESULT_FILES } from '../study/outFiles.js';
 import { linePlotSpec, type Row } from './figures.js';
 import { writeStudyReport } from './report.js';
 

@@ -26,6 +26,10 @@
 // warm-start points are not watched: a point that never returns there would hang the run, as with
 // jobs = 1.) Test hook: BANDBEND_TEST_WORKER_HANG=<index,...> makes a worker thread (never the main
 // thread) hang on those point indices; see worker.ts.
+//
+// Modules: this file checks the options and runs the steps; rows.ts writes rows in order, resume.ts
+// checks an earlier run, studyRecord.ts reads and writes study.json, runPoints.ts evaluates points in
+// this thread, workerPool.ts on worker threads, outFiles.ts holds the lock, line scans and shards.
 import { existsSync, rmSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
