@@ -23,6 +23,8 @@ sweep:
 outputs: [bandBending_eV, electronsPerParticle, direction, warnings]
 `;
 const TOTAL = 1500;
+/** Whole study runs in child processes (about 40 s of CPU for 6000 points): room for a loaded machine, no timing assertion. */
+const SLOW_TEST_MS = 240_000;
 
 let work: string;
 let studyFile: string;
@@ -119,7 +121,7 @@ describe('resume after SIGKILL', () => {
       expect(readFileSync(join(out, 'results.csv'), 'utf8')).toBe(readFileSync(join(refDir, 'results.csv'), 'utf8'));
       expect(readFileSync(join(out, 'results.jsonl'), 'utf8')).toBe(readFileSync(join(refDir, 'results.jsonl'), 'utf8'));
       expect(existsSync(join(out, '.bandbend-study.lock'))).toBe(false);
-    });
+    }, SLOW_TEST_MS);
   }
 
   it('cuts a partial last line and a row missing from one file, and says so', () => {
@@ -224,7 +226,7 @@ describe('one run per folder', () => {
     expect(c3).toBe(2);
     expect(c1).toBe(0);
     expect(expectCompleteLines(out)).toBe(6000);
-  });
+  }, SLOW_TEST_MS);
 
   it('a lock from another host is never taken over', () => {
     const out = join(work, 'foreign-lock');

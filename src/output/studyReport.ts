@@ -17,6 +17,7 @@ import { InputError } from '../errors.js';
 import { StudyAggregator, fieldName, inputTitle, outputTitle, spansDecades, splitCsvLine, type AggregatedPoint, type AxisGroups } from '../study/aggregate.js';
 import { axisValues } from '../study/sweep.js';
 import { fieldSpec, studyColumns, type Study } from '../study/studyFile.js';
+import { RESULT_FILES } from '../study/outFiles.js';
 import { defaultUnitOf } from '../inputs/units.js';
 import { BASE_CONFIG, axisFormatFor, decadeTicks } from './figures.js';
 import { escapeHtml } from './escape.js';
@@ -54,6 +55,8 @@ export interface StudyReportOptions {
   run?: { points: number; total: number; failed: number; elapsed_s?: number; note?: string };
   force?: boolean;
   signal?: AbortSignal;
+  /** the results file to read (JSONL, or CSV when it ends in .csv); default: outDir's results.jsonl, else results.csv */
+  resultsPath?: string;
 }
 
 export interface StudyReportPaths {
@@ -68,14 +71,19 @@ function checkAbort(signal: AbortSignal | undefined): void {
   if (signal?.aborted) throw new ReportInterrupted();
 }
 
-/** Stream the results (JSONL preferred, else CSV) into an aggregator. */
-export async function aggregateResults(outDir: string, study: Study, signal?: AbortSignal): Promise<StudyAggregator> {
+/** The results file of outDir: results.jsonl, else results.csv, else null. */
+function resultsFileOf(outDir: string): string | null {
+  const jsonl = join(outDir, RESULT_FILES.json);
+  const csv = join(outDir, RESULT_FILES.csv);
+  return existsSync(jsonl) ? jsonl : existsSync(csv) ? csv : null;
+}
+
+/** Stream the results (resultsPath, else outDir's JSONL, else its CSV) into an aggregator. */
+export async function aggregateResults(outDir: string, study: Study, signal?: AbortSignal, resultsPath?: string): Promise<StudyAggregator> {
   const agg = new StudyAggregator(study, study.outputs.filter((o) => o !== 'warnings'));
-  const jsonl = join(outDir, 'results.jsonl');
-  const csv = join(outDir, 'results.csv');
-  const path = existsSync(jsonl) ? jsonl : existsSync(csv) ? csv : null;
+  const path = resultsPath ?? resultsFileOf(outDir);
   if (path === null) return agg;
-  const isCsv = path === csv;
+  const isCsv = path.endsWith('.csv');
   const columns = studyColumns(study);
   const rl = createInterface({ input: createReadStream(path), crlfDelay: Infinity });
   let n = 0;
@@ -283,7 +291,7 @@ export async function writeStudyReportFromResults(opts: StudyReportOptions): Pro
   const tmp = join(opts.outDir, `.report.tmp-${process.pid}`);
   rmSync(tmp, { recursive: true, force: true });
   try {
-    const agg = await aggregateResults(opts.outDir, opts.study, opts.signal);
+    const agg = await aggregateResults(opts.outDir, opts.study, opts.signal, opts.resultsPath);
     await mkdir(tmp, { recursive: true });
     const figures: { name: string; title: string; svg: string }[] = [];
     let bytes = 0;

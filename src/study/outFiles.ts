@@ -17,6 +17,25 @@ import { InputError } from '../errors.js';
 
 export const LOCK_FILE = '.bandbend-study.lock';
 
+export type StudyFormat = 'csv' | 'json';
+
+export const RESULT_FILES = { csv: 'results.csv', json: 'results.jsonl', study: 'study.json' } as const;
+
+/** Where the result files of a run (or a merge) with these formats are. */
+export interface ResultPaths {
+  csvPath: string | null;
+  jsonlPath: string | null;
+  studyPath: string;
+}
+
+export function resultPaths(outDir: string, formats: readonly StudyFormat[]): ResultPaths {
+  return {
+    csvPath: formats.includes('csv') ? join(outDir, RESULT_FILES.csv) : null,
+    jsonlPath: formats.includes('json') ? join(outDir, RESULT_FILES.json) : null,
+    studyPath: join(outDir, RESULT_FILES.study),
+  };
+}
+
 export interface LockInfo {
   pid: number;
   host: string;
@@ -212,6 +231,15 @@ export function openAppend(path: string, truncate: boolean): AppendFile {
   const fd = openSync(path, truncate ? 'w' : 'a');
   const size = truncate ? 0 : fstatSync(fd).size;
   return { path, fd, size };
+}
+
+/** Close an append file; a file already closed is not an error. */
+export function closeAppend(file: AppendFile): void {
+  try {
+    closeSync(file.fd);
+  } catch {
+    // already closed
+  }
 }
 
 /**
