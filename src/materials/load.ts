@@ -12,6 +12,7 @@
 import { fileURLToPath } from 'node:url';
 import { extname } from 'node:path';
 import { createRequire } from 'node:module';
+import { readFileSync } from 'node:fs';
 import type { ZodError, ZodIssue } from 'zod';
 import { InputError } from '../errors.js';
 import { MAX_INPUT_FILE_BYTES, readTextFile } from '../inputs/files.js';
@@ -203,7 +204,7 @@ export function buildLibrary(files: ParsedFile[]): MaterialsLibrary {
 function deepFreeze<T>(x: T): T {
   if (typeof x === 'object' && x !== null && !Object.isFrozen(x)) {
     Object.freeze(x);
-    for (const v of Object.values(x as Record<string, unknown>)) deepFreeze(v);
+    for (const k in x) deepFreeze((x as Record<string, unknown>)[k]); // for-in: no array per object (start-up time)
   }
   return x;
 }
@@ -213,8 +214,12 @@ function readBuiltinFiles(validate: boolean): ParsedFile[] {
   return BUILTIN_FILES.map((name) => {
     const path = fileURLToPath(new URL(name, BUILTIN_DIR));
     const label = `materials/${name}`;
+    if (!validate) {
+      // the package's own files: a plain read (the user-file checks of readDataFile are for untrusted paths)
+      const raw = JSON.parse(readFileSync(path, 'utf8')) as unknown;
+      return { label, data: (name === 'references.json' ? { references: raw } : raw) as MaterialsFile, trusted: true };
+    }
     const raw = readDataFile(path, label);
-    if (!validate) return { label, data: (name === 'references.json' ? { references: raw } : raw) as MaterialsFile, trusted: true };
     return { label, data: name === 'references.json' ? parseReferencesData(raw, label) : parseMaterialsData(raw, label) };
   });
 }
