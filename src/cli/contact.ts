@@ -1,7 +1,7 @@
 // `bandbend contact`: one metal/support contact. Loads only the physics unless a report is asked for.
 import type { Command } from 'commander';
 import { addContactFlags, contactOptionsFrom } from './options.js';
-import { writeJson } from './io.js';
+import { writeJson, notice } from './io.js';
 
 const EXAMPLES = `
 Examples:
@@ -26,7 +26,7 @@ async function runContact(opts: Record<string, unknown>): Promise<void> {
     // particle arrays: how the charge per particle depends on loading belongs in the write-up
     const extraSections = result.geometry === 'array' ? [await densitySweepSection(dir, sweepParticleDensity(options), title)] : [];
     const paths = await writeContactReport(dir, result, { title, force: true, extraSections });
-    if (opts['json'] !== true) process.stderr.write(`report written: ${paths.htmlPath}\n`);
+    if (opts['json'] !== true) notice(`report written: ${paths.htmlPath}`);
   }
   if (opts['json'] === true) writeJson(result);
   else {

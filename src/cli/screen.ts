@@ -3,7 +3,7 @@ import type { Command } from 'commander';
 import { existsSync, writeFileSync } from 'node:fs';
 import { InputError } from '../errors.js';
 import { addContactFlags, contactOptionsFrom } from './options.js';
-import { materialsFiles, writeJson } from './io.js';
+import { materialsFiles, writeJson, notice } from './io.js';
 
 const EXAMPLES = `
 Examples:
@@ -46,7 +46,7 @@ async function runScreenCommand(opts: Record<string, unknown>): Promise<void> {
   if (typeof opts['report'] === 'string') {
     const title = `Screen: ${metals.length} metals x ${supports.length} supports`;
     const paths = await screen.writeScreenFolder(opts['report'], rows, { title, metals, supports, sortBy, force: opts['force'] === true });
-    process.stderr.write(`report written: ${paths.htmlPath}\n`);
+    notice(`report written: ${paths.htmlPath}`);
   }
   if (opts['json'] === true) writeJson(rows);
   else if (csvTarget !== '-') {
