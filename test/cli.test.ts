@@ -894,27 +894,7 @@ describe('--help', () => {
   });
 });
 
-// =====================================================================================================
-describe('every contact --help example runs (bandbend issue 13, item 8)', () => {
-  const help = bandbend(['contact', '--help']).stdout;
-  const examples = help
-    .split('\n')
-    .map((l) => l.trim())
-    .filter((l) => l.startsWith('bandbend contact '));
-  it('lists five examples', () => {
-    expect(examples.length).toBe(5);
-  });
-  examples.forEach((line, i) => {
-    it(`example ${i + 1} exits 0`, () => {
-      // shell words: "5e17 cm^-3" stays one argument; the report goes to a temporary folder
-      const words = (line.match(/"[^"]*"|\S+/g) ?? []).map((w) => w.replace(/^"|"$/g, '')).slice(2);
-      const at = words.indexOf('--report');
-      if (at >= 0) words[at + 1] = tmpPath(`help-example-${i}`);
-      const r = bandbend(['contact', ...words, ...(at >= 0 ? ['--json'] : [])]);
-      expect(r.code, show(r)).toBe(0);
-    });
-  });
-});
+// every --help and README example runs: test/examples.test.ts
 
 describe('no silent options (bandbend issue 13, item 4)', () => {
   it('--particle-density outside the array geometry exits 2 naming the condition', () => {

@@ -8,8 +8,10 @@ import { readInputFile, writeJson } from './io.js';
 const EXAMPLES = `
 CSV columns: potential_V and capacitance_F (with --area) or capacitance_F_per_cm2.
 Examples:
-  bandbend mott-schottky data.csv --permittivity 31 --area 0.5cm^2 --reference Ag/AgCl
-  bandbend mott-schottky data.csv --permittivity 8.5 --reference RHE --ph 7 --json`;
+  bandbend mott-schottky examples/mott-schottky-sample.csv --permittivity 31 --reference Ag/AgCl
+  bandbend mott-schottky examples/mott-schottky-sample.csv --permittivity 31 --reference Ag/AgCl --json --plot ms.svg
+Saved to a file, the --json output is an input of \`bandbend contact --fit-from FILE\` (donor density and
+permittivity, or with --fit-use work-function the support work function from the flat-band potential).`;
 
 function areaFromText(text: string): number {
   const bare = Number(text);

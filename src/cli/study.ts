@@ -14,10 +14,11 @@ Study file (YAML or JSON):
 
 Examples:
   bandbend study examples/study-support-reduction.yaml --out out/reduction
-  bandbend study sweep.json --out out/sweep --jobs 2 --format csv
-  bandbend study sweep.json --out out/sweep --resume          # continue after a crash or Ctrl-C
-  bandbend study sweep.json --out out/shard-3 --shard 3/8     # points i with i % 8 == 2
-  bandbend study merge out/shard-* --out out/all              # join shards 1/8 .. 8/8
+  bandbend study examples/study-support-reduction.yaml --out out/reduction --resume       # continue after a crash or Ctrl-C
+  bandbend study examples/study-support-reduction.yaml --out out/csv-only --jobs 2 --format csv --no-plots
+  bandbend study examples/study-support-reduction.yaml --out out/shard-1 --shard 1/2 --no-plots   # points i with i % 2 == 0
+  bandbend study examples/study-support-reduction.yaml --out out/shard-2 --shard 2/2 --no-plots   # points i with i % 2 == 1
+  bandbend study merge out/shard-1 out/shard-2 --out out/all                               # join the shards
 
 --resume keeps the complete rows on disk (a partial last line is cut off) and computes the rest;
 a lock file (<out>/.bandbend-study.lock) makes a second run on the same folder refuse.
