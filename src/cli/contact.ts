@@ -1,6 +1,7 @@
 // `bandbend contact`: one metal/support contact. Loads only the physics unless a report is asked for.
 import { Option, type Command } from 'commander';
 import { InputError } from '../errors.js';
+import { createFolder } from '../inputs/files.js';
 import type { ContactOptions } from '../inputs/parameters.js';
 import { addContactFlags, contactOptionsFrom } from './options.js';
 import { FIT_USES, noteFitInputs, optionsFromFit, readFitFile, type FitUse } from './fitInput.js';
@@ -38,6 +39,7 @@ async function runContact(opts: Record<string, unknown>): Promise<void> {
       import('../output/report.js'),
       import('../densitySweep.js'),
     ]);
+    createFolder(dir, '--report'); // bad paths exit 2 (src/inputs/files.ts); then the empty-or-force rule
     await prepareReportDir(dir, opts['force'] === true);
     const title = `${result.metal} on ${result.support}`;
     // particle arrays: how the charge per particle depends on loading belongs in the write-up

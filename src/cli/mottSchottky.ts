@@ -1,6 +1,7 @@
 // `bandbend mott-schottky FILE`: fit capacitance-voltage data (least squares loaded only here).
 import { Option, type Command } from 'commander';
-import { existsSync, writeFileSync } from 'node:fs';
+import { existsSync } from 'node:fs';
+import { writeTextFile } from '../inputs/files.js';
 import { InputError, requireInRange } from '../errors.js';
 import { parseQuantity } from '../inputs/units.js';
 import { readInputFile, writeJson } from './io.js';
@@ -35,8 +36,8 @@ async function writePlot(path: string, rows: Rows, fit: Fit, electrodeArea_m2: n
     return { potential_V: row.potential_V, inverseCapSquared: 1 / (perArea * perArea) };
   });
   const spec = mottSchottkyFitSpec(points, { slope: fit.slope, intercept: fit.intercept, flatBand_V: fit.flatBandPotential_V }, { yTitle: '1/C^2 (m^4/F^2)' });
-  writeFileSync(path, await renderSvg(spec));
-  writeFileSync(`${path}.vl.json`, JSON.stringify(spec, null, 2));
+  writeTextFile(path, await renderSvg(spec), '--plot');
+  writeTextFile(`${path}.vl.json`, JSON.stringify(spec, null, 2), '--plot');
 }
 
 async function runMottSchottky(file: string, opts: Record<string, unknown>): Promise<void> {

@@ -1,5 +1,6 @@
 // `bandbend study FILE`: parameter sweeps from a study file, rows written as they complete, plus plots (src/study/command.ts).
 import type { Command } from 'commander';
+import { checkFolderPath } from '../inputs/files.js';
 
 const EXAMPLE = `
 Study file (YAML or JSON):
@@ -39,6 +40,8 @@ export function registerStudyCommand(program: Command): void {
     .addHelpText('after', EXAMPLE)
     .action(async (file: string, dirs: string[], opts: Record<string, unknown>) => {
       // loaded on use: `contact --json` must not pay for the study runner and its report
+      // a bad --out path exits 2 before any work; the runner creates the folder (createFolder) once the file is read
+      if (typeof opts['out'] === 'string') checkFolderPath(opts['out'], '--out');
       const { studyCommand } = await import('../study/command.js');
       await studyCommand(file, dirs, opts);
     });

@@ -2,6 +2,7 @@
 // and print how far the predictions are from the measurements, per barrier model. Loads the solver on use.
 import type { Command } from 'commander';
 import { InputError } from '../errors.js';
+import { createFolder } from '../inputs/files.js';
 import { parameterOf } from '../inputs/parameters.js';
 import type { BarrierModel } from '../types.js';
 import type { ValidationResult, ValidationStatistics } from '../validation/gallery.js';
@@ -82,6 +83,7 @@ async function runValidate(opts: Record<string, unknown>): Promise<void> {
   // refuse an existing non-empty report folder before any work is done
   if (report !== undefined) {
     const { prepareReportDir } = await import('../output/report.js');
+    createFolder(report, '--report');
     await prepareReportDir(report, opts['force'] === true);
   }
   const includeUnverified = opts['verifiedOnly'] !== true;

@@ -12,12 +12,14 @@ import {
   accessSync,
   closeSync,
   constants,
+  existsSync,
   fstatSync,
   mkdirSync,
   openSync,
   readSync,
   realpathSync,
   statSync,
+  writeFileSync,
   type Stats,
 } from 'node:fs';
 import { dirname, isAbsolute, resolve } from 'node:path';
@@ -161,6 +163,49 @@ export function readFileBytes(path: string, field: string, maxBytes: number = MA
  * file, and read-only folders, each with its own one-line InputError naming `field` and the path.
  */
 export function createFolder(path: string, field: string): string {
+  const { absolute, missing } = planFolder(path, field);
+  // create from the top down, one level at a time
+  for (let k = missing.length - 1; k >= 0; k--) {
+    const level = missing[k]!;
+    try {
+      mkdirSync(level);
+    } catch (err) {
+      if ((err as NodeJS.ErrnoException).code === 'EEXIST' && statSync(level).isDirectory()) continue;
+      return refuse(path, field, describeFolderErrno(err, dirname(level)));
+    }
+  }
+  return absolute;
+}
+
+/**
+ * Write a user-named output file (CSV, SVG, JSON): the folder it goes into must exist (checked like createFolder:
+ * not in /proc, /sys, /dev, writable), a folder of that name is refused, and write errors (read-only file, full
+ * disk) are an InputError naming `field` and the path.
+ */
+export function writeTextFile(path: string, text: string, field: string): void {
+  checkPathText(path, field);
+  const absolute = resolve(path);
+  const parent = dirname(absolute);
+  if (!existsSync(parent)) refuse(path, field, 'its folder does not exist');
+  checkFolderPath(parent, field);
+  if (systemRootOf(absolute) !== undefined) refuse(path, field, 'output files cannot be written there');
+  try {
+    writeFileSync(absolute, text);
+  } catch (err) {
+    refuse(path, field, describeErrno(err));
+  }
+}
+
+/**
+ * The checks of createFolder without creating anything: for commands that refuse a bad output path at once but
+ * create the folder only after their input is known to be good. Returns the absolute path.
+ */
+export function checkFolderPath(path: string, field: string): string {
+  return planFolder(path, field).absolute;
+}
+
+/** Every check of createFolder; the folders still missing, deepest first. */
+function planFolder(path: string, field: string): { absolute: string; missing: string[] } {
   checkPathText(path, field);
   const absolute = resolve(path);
   // the nearest existing ancestor, resolved through symbolic links
@@ -195,17 +240,7 @@ export function createFolder(path: string, field: string): string {
     return refuse(path, field, missing.length === 0 ? 'exists and is not a folder' : `${shownPath(existing)} is a file, not a folder`);
   }
   checkWritable(path, field, real, existing);
-  // create from the top down, one level at a time
-  for (let k = missing.length - 1; k >= 0; k--) {
-    const level = missing[k]!;
-    try {
-      mkdirSync(level);
-    } catch (err) {
-      if ((err as NodeJS.ErrnoException).code === 'EEXIST' && statSync(level).isDirectory()) continue;
-      return refuse(path, field, describeFolderErrno(err, dirname(level)));
-    }
-  }
-  return isAbsolute(absolute) ? absolute : resolve(absolute);
+  return { absolute: isAbsolute(absolute) ? absolute : resolve(absolute), missing };
 }
 
 function checkWritable(path: string, field: string, real: string, shown: string): void {

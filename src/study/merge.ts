@@ -3,7 +3,8 @@
 // point i is the (floor(i / N))-th row of shard (i % N) + 1 and the merge interleaves the shards'
 // lines round robin, copying every line byte for byte (the header once). Every shard must be complete
 // (status finished, all its points on disk); the study, columns and formats must agree.
-import { closeSync, createReadStream, existsSync, mkdirSync, statSync } from 'node:fs';
+import { closeSync, createReadStream, existsSync, statSync } from 'node:fs';
+import { createFolder } from '../inputs/files.js';
 import { join } from 'node:path';
 import { createInterface } from 'node:readline';
 import { InputError } from '../errors.js';
@@ -86,7 +87,7 @@ export async function mergeShards(options: MergeOptions): Promise<MergeSummary> 
     if (s.summary.points !== shardSize(studyTotal, s.shard)) throw new InputError('study merge', `${s.dir}: ${s.summary.points} rows, expected ${shardSize(studyTotal, s.shard)}`);
   }
   if (existsSync(options.outDir) && !statSync(options.outDir).isDirectory()) throw new InputError('--out', 'exists and is not a folder');
-  mkdirSync(options.outDir, { recursive: true });
+  createFolder(options.outDir, '--out'); // bounded, one level at a time; bad paths exit 2 (src/inputs/files.ts)
   const lock = acquireLock(options.outDir);
   const out: { format: StudyFormat; file: AppendFile; readers: AsyncIterator<string>[] }[] = [];
   let interrupted = false;

@@ -26,7 +26,8 @@
 // warm-start points are not watched: a point that never returns there would hang the run, as with
 // jobs = 1.) Test hook: BANDBEND_TEST_WORKER_HANG=<index,...> makes a worker thread (never the main
 // thread) hang on those point indices; see worker.ts.
-import { closeSync, existsSync, mkdirSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { closeSync, existsSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { createFolder } from '../inputs/files.js';
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import { Worker } from 'node:worker_threads';
@@ -198,7 +199,7 @@ export function prepareOutDir(outDir: string, force: boolean): void {
     for (const p of ours) rmSync(p, { force: true });
     return;
   }
-  mkdirSync(outDir, { recursive: true });
+  createFolder(outDir, '--out'); // bounded, one level at a time; bad paths exit 2 (src/inputs/files.ts)
 }
 
 function csvCell(v: OutputValue): string {
@@ -659,7 +660,7 @@ export async function runStudy(options: RunStudyOptions): Promise<StudySummary> 
   const library = resolveMaterials(study.base.materials);
 
   if (existsSync(outDir) && !statSync(outDir).isDirectory()) throw new InputError('--out', 'exists and is not a folder');
-  mkdirSync(outDir, { recursive: true });
+  createFolder(outDir, '--out'); // bounded, one level at a time; bad paths exit 2 (src/inputs/files.ts)
   const lock = acquireLock(outDir);
   const studyPath = join(outDir, RESULT_FILES.study);
   let files: ResultFiles | null = null;
