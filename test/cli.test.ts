@@ -527,6 +527,19 @@ describe('bandbend screen', () => {
     }
   });
 
+  it('--json warnings are the {code, message} objects of contact --json for the same pair (one API style)', () => {
+    const rows = parseJson<{ metal: string; support: string; warnings: unknown }[]>(bandbend([...BASE, '--json']));
+    for (const row of rows) {
+      const contact = parseJson<{ warnings: unknown }>(bandbend(['contact', '--metal', row.metal, '--support', row.support, '--json']));
+      expect(Array.isArray(row.warnings)).toBe(true);
+      expect(row.warnings).toEqual(contact.warnings);
+    }
+    // the CSV keeps one cell: the codes
+    const csv = parseCsv(bandbend([...BASE, '--csv', '-']).stdout);
+    const col = csv[0]!.indexOf('warnings');
+    for (const line of csv.slice(1)) expect(line[col]).toMatch(/^[a-z0-9-]*( [a-z0-9-]+)*$/);
+  });
+
   it('--csv FILE refuses to overwrite without --force', () => {
     const file = tmpPath('screen.csv');
     expectOk(bandbend([...BASE, '--csv', file]));
