@@ -1,5 +1,6 @@
 // `bandbend contact`: one metal/support contact. Loads only the physics unless a report is asked for.
-import { Option, type Command } from 'commander';
+import type { Command } from 'commander';
+import { Option } from './commander.js';
 import { InputError } from '../errors.js';
 import { createFolder } from '../inputs/files.js';
 import type { ContactOptions } from '../inputs/parameters.js';

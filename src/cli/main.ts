@@ -1,6 +1,7 @@
 // The `bandbend` command line. Exit codes: 0 ok, 2 bad input (one line naming the field), 1 internal error.
 // Each command registers itself and loads what it needs on use, so `contact --json` loads only the physics.
-import { Command, CommanderError } from 'commander';
+import type { Command as CommandType } from 'commander';
+import { Command, CommanderError } from './commander.js';
 import { InputError, ConvergenceError } from '../errors.js';
 import { stripTerminalControl } from '../output/escape.js';
 import { registerContact } from './contact.js';
@@ -13,7 +14,7 @@ import { registerValidate } from './validate.js';
 
 export { readInputFile } from './io.js';
 
-function buildProgram(): Command {
+function buildProgram(): CommandType {
   const program = new Command();
   program
     .name('bandbend')

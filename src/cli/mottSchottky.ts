@@ -1,5 +1,6 @@
 // `bandbend mott-schottky FILE`: fit capacitance-voltage data (least squares loaded only here).
-import { Option, type Command } from 'commander';
+import type { Command } from 'commander';
+import { Option } from './commander.js';
 import { existsSync } from 'node:fs';
 import { writeTextFile } from '../inputs/files.js';
 import { InputError, requireInRange } from '../errors.js';
