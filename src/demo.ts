@@ -1,6 +1,7 @@
 // Built-in demo scenario (invented): the "Kestrel" hydrogenation team screens metal nanoparticles on reduced
 // oxide supports and writes up its lead sample HX-14 (Pt on H2-reduced ceria). Team and sample names are fictional.
-import { existsSync, mkdirSync, readdirSync, writeFileSync } from 'node:fs';
+import { existsSync, readdirSync, writeFileSync } from 'node:fs';
+import { createFolder } from './inputs/files.js';
 import { join } from 'node:path';
 import { solveContact, type ContactOptions } from './contact.js';
 import { sweepParticleDensity, densitySweepSection } from './densitySweep.js';
@@ -39,10 +40,12 @@ export const DEMO_SCREEN = {
 
 export async function runDemo(options: DemoOptions): Promise<{ summary: string; htmlPath: string }> {
   const { outDir, force } = options;
-  if (existsSync(outDir) && readdirSync(outDir).length > 0 && !force) {
+  // bounded creation; /dev/null, /proc/..., read-only folders and files in the way exit 2 (src/inputs/files.ts)
+  const existed = existsSync(outDir);
+  createFolder(outDir, '--out');
+  if (existed && readdirSync(outDir).length > 0 && !force) {
     throw new InputError('--out', `${outDir} exists and is not empty; use --force to overwrite`);
   }
-  mkdirSync(outDir, { recursive: true });
   const library = loadLibrary();
 
   // 1. the lead sample, with literature scatter propagated

@@ -3,7 +3,7 @@ import { solveContact, type ContactOptions } from './contact.js';
 import { resolveLibrary } from './materials/load.js';
 import { stringify } from 'csv-stringify/sync';
 import type { MaterialsLibrary } from './materials/types.js';
-import type { ContactResult } from './types.js';
+import type { ContactResult, Warning } from './types.js';
 import { InputError, isModelFailure } from './errors.js';
 import { flagName, parameterOf } from './inputs/parameters.js';
 import { heatmapSpec } from './output/figures.js';
@@ -27,9 +27,10 @@ export interface ScreenRow {
   donorSource: string | null;
   /** probability that electrons flow from support to metal (only with uncertainty sampling) */
   probabilitySupportToMetal: number | null;
-  warnings: string;
+  /** the contact's warnings, the same {code, message} objects as in `contact --json` (the CSV column lists the codes) */
+  warnings: Warning[];
   error: string;
-  [key: string]: string | number | null;
+  [key: string]: string | number | null | Warning[];
 }
 
 export interface ScreenOptions {
@@ -74,7 +75,7 @@ function rowOf(metal: string, support: string, r: ContactResult | null, error: s
     donorDensity_cm3: r?.donorDensity_cm3 ?? null,
     donorSource: r ? donorSourceOf(r) : null,
     probabilitySupportToMetal: r?.uncertainty?.directionProbability['support-to-metal'] ?? null,
-    warnings: r ? r.warnings.map((w) => w.code).join(' ') : '',
+    warnings: r ? r.warnings.map((w) => ({ code: w.code, message: w.message })) : [],
     error,
   };
 }
@@ -134,9 +135,19 @@ export function runScreen(options: ScreenOptions): ScreenRow[] {
   return rows;
 }
 
-/** The screen table as CSV, in the SCREEN_COLUMNS order. */
+/** The warning codes of a row, space-separated (CSV cell, terminal table). */
+export function warningCodes(row: Pick<ScreenRow, 'warnings'>): string {
+  return row.warnings.map((w) => w.code).join(' ');
+}
+
+/** The screen table as CSV, in the SCREEN_COLUMNS order; the warnings column holds the codes. */
 export function screenCsv(rows: readonly ScreenRow[]): string {
-  return stringify(rows as unknown as Record<string, unknown>[], { header: true, columns: SCREEN_COLUMNS as string[] });
+  return stringify(rows.map(flatRow), { header: true, columns: SCREEN_COLUMNS as string[] });
+}
+
+/** A row with its warnings as the codes, for tables, CSV and heat maps. */
+function flatRow(row: ScreenRow): Record<string, string | number | null> {
+  return { ...row, warnings: warningCodes(row) } as Record<string, string | number | null>;
 }
 
 /** Sort rows: by a numeric column, largest magnitude first; failed rows last. */
@@ -171,20 +182,21 @@ export interface ScreenReportOptions {
 
 /** Screen report: heat maps, sorted table (columns that are empty in every row left out), warning summary. */
 export function writeScreenFolder(dir: string, rows: ScreenRow[], options: ScreenReportOptions): Promise<ReportPaths> {
+  const flat = rows.map(flatRow);
   const figures = (Object.keys(HEATMAP_TITLES) as (keyof typeof HEATMAP_TITLES)[]).map((metric) => ({
     name: `heatmap-${metric}`,
     title: HEATMAP_TITLES[metric],
-    spec: heatmapSpec(rows, { metricField: metric, title: HEATMAP_TITLES[metric], legendTitle: metric, metals: options.metals, supports: options.supports }),
+    spec: heatmapSpec(flat, { metricField: metric, title: HEATMAP_TITLES[metric], legendTitle: metric, metals: options.metals, supports: options.supports }),
   }));
-  const columns = (SCREEN_COLUMNS as string[]).filter((c) => rows.some((r) => r[c] !== null && r[c] !== ''));
+  const columns = (SCREEN_COLUMNS as string[]).filter((c) => flat.some((r) => r[c] !== null && r[c] !== ''));
   const counts = new Map<string, number>();
-  for (const row of rows) for (const code of row.warnings.split(' ').filter((w) => w !== '')) counts.set(code, (counts.get(code) ?? 0) + 1);
+  for (const row of rows) for (const { code } of row.warnings) counts.set(code, (counts.get(code) ?? 0) + 1);
   const failed = rows.filter((r) => r.error !== '');
   const warnings = [
     ...[...counts].map(([code, n]) => `${code}: ${n} of ${rows.length} pairs`),
     ...failed.map((r) => `${r.metal} on ${r.support} failed: ${r.error}`),
   ];
-  return writeScreenReport(dir, rows, figures, {
+  return writeScreenReport(dir, flat, figures, {
     title: options.title,
     force: options.force,
     sortBy: options.sortBy,

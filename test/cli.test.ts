@@ -527,6 +527,19 @@ describe('bandbend screen', () => {
     }
   });
 
+  it('--json warnings are the {code, message} objects of contact --json for the same pair (one API style)', () => {
+    const rows = parseJson<{ metal: string; support: string; warnings: unknown }[]>(bandbend([...BASE, '--json']));
+    for (const row of rows) {
+      const contact = parseJson<{ warnings: unknown }>(bandbend(['contact', '--metal', row.metal, '--support', row.support, '--json']));
+      expect(Array.isArray(row.warnings)).toBe(true);
+      expect(row.warnings).toEqual(contact.warnings);
+    }
+    // the CSV keeps one cell: the codes
+    const csv = parseCsv(bandbend([...BASE, '--csv', '-']).stdout);
+    const col = csv[0]!.indexOf('warnings');
+    for (const line of csv.slice(1)) expect(line[col]).toMatch(/^[a-z0-9-]*( [a-z0-9-]+)*$/);
+  });
+
   it('--csv FILE refuses to overwrite without --force', () => {
     const file = tmpPath('screen.csv');
     expectOk(bandbend([...BASE, '--csv', file]));
@@ -894,27 +907,7 @@ describe('--help', () => {
   });
 });
 
-// =====================================================================================================
-describe('every contact --help example runs (bandbend issue 13, item 8)', () => {
-  const help = bandbend(['contact', '--help']).stdout;
-  const examples = help
-    .split('\n')
-    .map((l) => l.trim())
-    .filter((l) => l.startsWith('bandbend contact '));
-  it('lists five examples', () => {
-    expect(examples.length).toBe(5);
-  });
-  examples.forEach((line, i) => {
-    it(`example ${i + 1} exits 0`, () => {
-      // shell words: "5e17 cm^-3" stays one argument; the report goes to a temporary folder
-      const words = (line.match(/"[^"]*"|\S+/g) ?? []).map((w) => w.replace(/^"|"$/g, '')).slice(2);
-      const at = words.indexOf('--report');
-      if (at >= 0) words[at + 1] = tmpPath(`help-example-${i}`);
-      const r = bandbend(['contact', ...words, ...(at >= 0 ? ['--json'] : [])]);
-      expect(r.code, show(r)).toBe(0);
-    });
-  });
-});
+// every --help and README example runs: test/examples.test.ts
 
 describe('no silent options (bandbend issue 13, item 4)', () => {
   it('--particle-density outside the array geometry exits 2 naming the condition', () => {

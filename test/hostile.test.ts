@@ -133,6 +133,35 @@ describe('files that are not regular files (CLI exit 2, one line, no file bytes 
   });
 });
 
+describe('output folders and files at bad paths (CLI exit 2, one line; folders made by createFolder)', () => {
+  const STUDY = 'examples/study-support-reduction.yaml';
+  const MS = ['mott-schottky', 'examples/mott-schottky-sample.csv', '--permittivity', '31'];
+  it.each([
+    [['demo', '--out', '/dev/null'], '/dev'],
+    [['demo', '--out', '/proc/bandbend-demo'], '/proc'],
+    [['demo', '--out', ''], 'missing path'],
+    [[...PAIR, '--report', '/proc/bandbend-report'], '/proc'],
+    [[...PAIR, '--report', ''], 'missing path'],
+    [[...PAIR, '--report', '/dev/null/sub'], 'not a folder'],
+    [['screen', '--metals', 'Pt', '--supports', 'ZnO', '--csv', '/nonexistent-bandbend/x.csv'], 'folder does not exist'],
+    [['screen', '--metals', 'Pt', '--supports', 'ZnO', '--report', '/sys/bandbend'], '/sys'],
+    [['validate', '--report', '/proc/bandbend-validate'], '/proc'],
+    [['study', STUDY, '--out', '/proc/bandbend-study'], '/proc'],
+    [['study', 'merge', 'a', 'b', '--out', '/sys/bandbend-merge'], '/sys'],
+    [[...MS, '--plot', '/nonexistent-bandbend/ms.svg'], 'folder does not exist'],
+  ])('%j exits 2 naming the problem', (args, mention) => {
+    expectBadInput(bandbend(args), mention);
+  });
+
+  it('a folder deeper than the creation bound, and a file in the way, exit 2', () => {
+    const deep = join(work, ...Array.from({ length: 20 }, (_, i) => `d${i}`));
+    expectBadInput(bandbend(['demo', '--out', deep]), 'new folder levels');
+    const file = join(work, 'plain-file');
+    writeFileSync(file, 'x');
+    expectBadInput(bandbend([...PAIR, '--report', join(file, 'sub')]), 'not a folder');
+  });
+});
+
 describe('a 130k-row Mott–Schottky CSV (no spread of rows into function calls)', () => {
   // Exact synthetic data from the Mott–Schottky relation for an n-type electrode,
   //   1/C^2 = 2 (V - V_fb - kT/q) / (q eps eps0 N_D)

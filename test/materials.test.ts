@@ -21,6 +21,7 @@ import {
   provenanceOf,
   type PropertyValue,
 } from '../src/materials/index.js';
+import { validateBuiltinLibrary } from '../src/materials/load.js';
 
 const lib = loadBuiltinLibrary();
 
@@ -34,6 +35,19 @@ function propertyValues(obj: unknown, prefix = ''): [string, PropertyValue][] {
 const allRecords = [...lib.metals.values(), ...lib.supports.values()];
 
 describe('built-in library: schema and provenance', () => {
+  // The run time trusts materials/*.json (no zod at start-up, src/materials/load.ts); this is where they are
+  // checked with everything a user file gets: the schema, unique names and every source resolving.
+  test('the built-in files pass the full user-file validation, and the trusted load gives the same library', () => {
+    const validated = validateBuiltinLibrary();
+    expect([...validated.metals.keys()]).toEqual([...lib.metals.keys()]);
+    expect([...validated.supports.keys()]).toEqual([...lib.supports.keys()]);
+    expect([...validated.references.keys()]).toEqual([...lib.references.keys()]);
+    // zod returns keys in schema order: compare as data, not as text
+    expect(validated.supports).toEqual(lib.supports);
+    expect(validated.metals).toEqual(lib.metals);
+    expect(validated.references).toEqual(lib.references);
+  });
+
   test('counts', () => {
     expect(lib.metals.size).toBeGreaterThanOrEqual(20);
     expect(lib.supports.size).toBeGreaterThanOrEqual(20);

@@ -21,7 +21,7 @@ describe('screen donor densities (issue 10 item 7)', () => {
     const mgo = rows.find((r) => r.support === 'MgO')!;
     expect(mgo.error).toBe('');
     expect(rows.every((r) => r.donorSource === 'user')).toBe(true);
-    expect(mgo.warnings.split(' ')).not.toContain('shallow-donors-in-insulator');
+    expect(mgo.warnings.map((w) => w.code)).not.toContain('shallow-donors-in-insulator');
   });
   it('shallow donors forced into MgO (gap ~7.8 eV) are flagged, in ZnO (3.3 eV) not', () => {
     // F centres in MgO absorb near 5 eV (Kappers, Kroes & Hensley, Phys. Rev. B 1, 4151 (1970)): donors there are eV deep
@@ -35,7 +35,7 @@ describe('screen donor densities (issue 10 item 7)', () => {
     const zno = rows.find((r) => r.support === 'ZnO')!;
     const mgo = rows.find((r) => r.support === 'MgO')!;
     expect(mgo.error).toBe('');
-    expect(mgo.warnings.split(' ')).toContain('shallow-donors-in-insulator');
-    expect(zno.warnings.split(' ')).not.toContain('shallow-donors-in-insulator');
+    expect(mgo.warnings.map((w) => w.code)).toContain('shallow-donors-in-insulator');
+    expect(zno.warnings.map((w) => w.code)).not.toContain('shallow-donors-in-insulator');
   });
 });

@@ -4,7 +4,7 @@ import type { Command } from 'commander';
 const EXAMPLES = `
 Examples:
   bandbend demo                      # writes reports/demo (fails if it exists and is not empty)
-  bandbend demo --out /tmp/demo --force`;
+  bandbend demo --out out/demo --force`;
 
 export function registerDemo(program: Command): void {
   program

@@ -1,5 +1,6 @@
 // Small helpers shared by the commands: JSON on stdout, bounded reads of input files.
 import { MAX_INPUT_FILE_BYTES, readTextFile } from '../inputs/files.js';
+import { stripTerminalControl } from '../output/escape.js';
 
 /** The JSON text the CLI prints (also the explorer page's downloads); non-finite numbers become null. */
 export function jsonText(value: unknown): string {
@@ -18,4 +19,9 @@ export function materialsFiles(value: unknown): string[] | undefined {
 
 export function readInputFile(path: string, field: string, maxBytes = MAX_INPUT_FILE_BYTES): string {
   return readTextFile(path, field, maxBytes); // regular files only, size counted while reading (src/inputs/files.ts)
+}
+
+/** One notice line on stderr (e.g. "report written: PATH"); user text in it cannot control the terminal. */
+export function notice(text: string): void {
+  process.stderr.write(`${stripTerminalControl(text)}\n`);
 }

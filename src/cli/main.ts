@@ -1,7 +1,9 @@
 // The `bandbend` command line. Exit codes: 0 ok, 2 bad input (one line naming the field), 1 internal error.
 // Each command registers itself and loads what it needs on use, so `contact --json` loads only the physics.
-import { Command, CommanderError } from 'commander';
+import type { Command as CommandType } from 'commander';
+import { Command, CommanderError } from './commander.js';
 import { InputError, ConvergenceError } from '../errors.js';
+import { stripTerminalControl } from '../output/escape.js';
 import { registerContact } from './contact.js';
 import { registerScreen } from './screen.js';
 import { registerStudyCommand } from './study.js';
@@ -13,15 +15,14 @@ import { registerExplore } from './explore.js';
 
 export { readInputFile } from './io.js';
 
-function buildProgram(): Command {
+function buildProgram(): CommandType {
   const program = new Command();
   program
     .name('bandbend')
     .description(
       'Equilibrium band bending, barrier height, space-charge width and charge per particle at metal/oxide-support contacts.',
     )
-    .version('0.1.0')
-    .showHelpAfterError('(run with --help for usage)');
+    .version('0.1.0');
   registerContact(program);
   registerScreen(program);
   registerStudyCommand(program);
@@ -33,15 +34,21 @@ function buildProgram(): Command {
   return program;
 }
 
+/** One stderr line: user text in messages (names, paths, option values) cannot move the cursor or ring a bell. */
+export function errorLine(message: string, suffix = ''): string {
+  return `bandbend: error: ${stripTerminalControl(message).trim()}${suffix}\n`;
+}
+
 /** Run the CLI; returns the exit code. */
 export async function main(argv: string[]): Promise<number> {
   const program = buildProgram();
-  program.exitOverride();
-  program.configureOutput({
-    writeErr: (text) => process.stderr.write(text),
-  });
-  for (const command of program.commands) command.exitOverride();
-  for (const command of program.commands) for (const sub of command.commands) sub.exitOverride();
+  const output = {
+    writeErr: (text: string) => process.stderr.write(stripTerminalControl(text, true)),
+    // commander's usage errors ("error: unknown option '--x'") in the same one-line form as every other error
+    outputError: (text: string) => process.stderr.write(errorLine(text.replace(/^error:\s*/, ''), ' (run with --help for usage)')),
+  };
+  const all = [program, ...program.commands, ...program.commands.flatMap((c) => c.commands)];
+  for (const command of all) command.exitOverride().configureOutput(output);
   try {
     await program.parseAsync(argv, { from: 'user' });
     // a command may set a non-zero code without failing (an interrupted study exits 130, like a shell)
@@ -53,15 +60,15 @@ export async function main(argv: string[]): Promise<number> {
       return 2;
     }
     if (error instanceof InputError) {
-      process.stderr.write(`bandbend: error: ${error.message}\n`);
+      process.stderr.write(errorLine(error.message));
       return 2;
     }
     if (error instanceof ConvergenceError) {
-      process.stderr.write(`bandbend: ${error.message}\n`);
+      process.stderr.write(`bandbend: ${stripTerminalControl(error.message)}\n`);
       return 1;
     }
     const message = error instanceof Error ? error.message : String(error);
-    process.stderr.write(`bandbend: internal error: ${message}\n`);
+    process.stderr.write(`bandbend: internal error: ${stripTerminalControl(message)}\n`);
     if (process.env['BANDBEND_DEBUG'] && error instanceof Error) process.stderr.write(`${error.stack ?? ''}\n`);
     return 1;
   }

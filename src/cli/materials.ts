@@ -1,5 +1,6 @@
 // `bandbend materials list|show`: the materials library with ranges and citations.
-import { Option, type Command } from 'commander';
+import type { Command } from 'commander';
+import { Option } from './commander.js';
 import { InputError } from '../errors.js';
 import { materialsFiles, writeJson } from './io.js';
 

@@ -1,6 +1,8 @@
 // `bandbend mott-schottky FILE`: fit capacitance-voltage data (least squares loaded only here).
-import { Option, type Command } from 'commander';
-import { existsSync, writeFileSync } from 'node:fs';
+import type { Command } from 'commander';
+import { Option } from './commander.js';
+import { existsSync } from 'node:fs';
+import { writeTextFile } from '../inputs/files.js';
 import { InputError, requireInRange } from '../errors.js';
 import { parseQuantity } from '../inputs/units.js';
 import { readInputFile, writeJson } from './io.js';
@@ -8,8 +10,10 @@ import { readInputFile, writeJson } from './io.js';
 const EXAMPLES = `
 CSV columns: potential_V and capacitance_F (with --area) or capacitance_F_per_cm2.
 Examples:
-  bandbend mott-schottky data.csv --permittivity 31 --area 0.5cm^2 --reference Ag/AgCl
-  bandbend mott-schottky data.csv --permittivity 8.5 --reference RHE --ph 7 --json`;
+  bandbend mott-schottky examples/mott-schottky-sample.csv --permittivity 31 --reference Ag/AgCl
+  bandbend mott-schottky examples/mott-schottky-sample.csv --permittivity 31 --reference Ag/AgCl --json --plot ms.svg
+Saved to a file, the --json output is an input of \`bandbend contact --fit-from FILE\` (donor density and
+permittivity, or with --fit-use work-function the support work function from the flat-band potential).`;
 
 function areaFromText(text: string): number {
   const bare = Number(text);
@@ -33,8 +37,8 @@ async function writePlot(path: string, rows: Rows, fit: Fit, electrodeArea_m2: n
     return { potential_V: row.potential_V, inverseCapSquared: 1 / (perArea * perArea) };
   });
   const spec = mottSchottkyFitSpec(points, { slope: fit.slope, intercept: fit.intercept, flatBand_V: fit.flatBandPotential_V }, { yTitle: '1/C^2 (m^4/F^2)' });
-  writeFileSync(path, await renderSvg(spec));
-  writeFileSync(`${path}.vl.json`, JSON.stringify(spec, null, 2));
+  writeTextFile(path, await renderSvg(spec), '--plot');
+  writeTextFile(`${path}.vl.json`, JSON.stringify(spec, null, 2), '--plot');
 }
 
 async function runMottSchottky(file: string, opts: Record<string, unknown>): Promise<void> {

@@ -1,5 +1,6 @@
 // CLI flags of the contact inputs, generated from the parameter table (src/inputs/parameters.ts).
-import { Option, type Command } from 'commander';
+import type { Command } from 'commander';
+import { Option } from './commander.js';
 import { PARAMETERS, flagName, helpText, type ContactOptions, type OptionName } from '../inputs/parameters.js';
 
 /** Add one flag per table row (help text with the documented default, choices checked by commander). */

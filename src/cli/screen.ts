@@ -1,9 +1,10 @@
 // `bandbend screen`: metals x supports at the same conditions.
 import type { Command } from 'commander';
-import { existsSync, writeFileSync } from 'node:fs';
+import { existsSync } from 'node:fs';
+import { createFolder, writeTextFile } from '../inputs/files.js';
 import { InputError } from '../errors.js';
 import { addContactFlags, contactOptionsFrom } from './options.js';
-import { materialsFiles, writeJson } from './io.js';
+import { materialsFiles, writeJson, notice } from './io.js';
 
 const EXAMPLES = `
 Examples:
@@ -22,7 +23,7 @@ function writeCsv(target: string, csv: string, force: boolean): void {
     return;
   }
   if (existsSync(target) && !force) throw new InputError('--csv', `${target} exists; use --force to overwrite`);
-  writeFileSync(target, csv);
+  writeTextFile(target, csv, '--csv');
 }
 
 async function runScreenCommand(opts: Record<string, unknown>): Promise<void> {
@@ -44,9 +45,10 @@ async function runScreenCommand(opts: Record<string, unknown>): Promise<void> {
   const csvTarget = opts['csv'];
   if (typeof csvTarget === 'string') writeCsv(csvTarget, screen.screenCsv(rows), opts['force'] === true);
   if (typeof opts['report'] === 'string') {
+    createFolder(opts['report'], '--report');
     const title = `Screen: ${metals.length} metals x ${supports.length} supports`;
     const paths = await screen.writeScreenFolder(opts['report'], rows, { title, metals, supports, sortBy, force: opts['force'] === true });
-    process.stderr.write(`report written: ${paths.htmlPath}\n`);
+    notice(`report written: ${paths.htmlPath}`);
   }
   if (opts['json'] === true) writeJson(rows);
   else if (csvTarget !== '-') {

@@ -1,5 +1,6 @@
 // `bandbend study FILE`: parameter sweeps from a study file, rows written as they complete, plus plots (src/study/command.ts).
 import type { Command } from 'commander';
+import { checkFolderPath } from '../inputs/files.js';
 
 const EXAMPLE = `
 Study file (YAML or JSON):
@@ -14,10 +15,11 @@ Study file (YAML or JSON):
 
 Examples:
   bandbend study examples/study-support-reduction.yaml --out out/reduction
-  bandbend study sweep.json --out out/sweep --jobs 2 --format csv
-  bandbend study sweep.json --out out/sweep --resume          # continue after a crash or Ctrl-C
-  bandbend study sweep.json --out out/shard-3 --shard 3/8     # points i with i % 8 == 2
-  bandbend study merge out/shard-* --out out/all              # join shards 1/8 .. 8/8
+  bandbend study examples/study-support-reduction.yaml --out out/reduction --resume       # continue after a crash or Ctrl-C
+  bandbend study examples/study-support-reduction.yaml --out out/csv-only --jobs 2 --format csv --no-plots
+  bandbend study examples/study-support-reduction.yaml --out out/shard-1 --shard 1/2 --no-plots   # points i with i % 2 == 0
+  bandbend study examples/study-support-reduction.yaml --out out/shard-2 --shard 2/2 --no-plots   # points i with i % 2 == 1
+  bandbend study merge out/shard-1 out/shard-2 --out out/all                               # join the shards
 
 --resume keeps the complete rows on disk (a partial last line is cut off) and computes the rest;
 a lock file (<out>/.bandbend-study.lock) makes a second run on the same folder refuse.
@@ -38,6 +40,8 @@ export function registerStudyCommand(program: Command): void {
     .addHelpText('after', EXAMPLE)
     .action(async (file: string, dirs: string[], opts: Record<string, unknown>) => {
       // loaded on use: `contact --json` must not pay for the study runner and its report
+      // a bad --out path exits 2 before any work; the runner creates the folder (createFolder) once the file is read
+      if (typeof opts['out'] === 'string') checkFolderPath(opts['out'], '--out');
       const { studyCommand } = await import('../study/command.js');
       await studyCommand(file, dirs, opts);
     });

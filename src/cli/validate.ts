@@ -2,10 +2,11 @@
 // and print how far the predictions are from the measurements, per barrier model. Loads the solver on use.
 import type { Command } from 'commander';
 import { InputError } from '../errors.js';
+import { createFolder } from '../inputs/files.js';
 import { parameterOf } from '../inputs/parameters.js';
 import type { BarrierModel } from '../types.js';
 import type { ValidationResult, ValidationStatistics } from '../validation/gallery.js';
-import { writeJson } from './io.js';
+import { writeJson, notice } from './io.js';
 
 /** Model name meaning "leave barrierModel unset": whatever the library default of the day is. */
 export const DEFAULT_MODEL = 'default';
@@ -82,6 +83,7 @@ async function runValidate(opts: Record<string, unknown>): Promise<void> {
   // refuse an existing non-empty report folder before any work is done
   if (report !== undefined) {
     const { prepareReportDir } = await import('../output/report.js');
+    createFolder(report, '--report');
     await prepareReportDir(report, opts['force'] === true);
   }
   const includeUnverified = opts['verifiedOnly'] !== true;
@@ -119,7 +121,7 @@ async function runValidate(opts: Record<string, unknown>): Promise<void> {
     const { formatNumber } = await import('../output/summary.js');
     process.stdout.write(`${statisticsTable(runs, formatNumber)}\n`);
     process.stdout.write('MAE: mean absolute error of predicted vs measured; see validation/README.md for the gallery and its sources.\n');
-    if (report !== undefined) process.stderr.write(`report written: ${written[0]}\n`);
+    if (report !== undefined) notice(`report written: ${written[0]}`);
   }
 }
 

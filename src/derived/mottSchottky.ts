@@ -118,6 +118,10 @@ export interface MottSchottkyFit {
   supportWorkFunction_eV: number;
   /** kT/q at the measurement temperature, V */
   thermalVoltage_V: number;
+  /** the static relative permittivity the density was computed with (contact --fit-from uses it too) */
+  permittivityRelative: number;
+  /** measurement temperature, K */
+  temperature_K: number;
 }
 
 interface LinearFit {
@@ -174,41 +178,8 @@ export function fitMottSchottky(input: MottSchottkyInput): MottSchottkyFit {
   const permittivity = requireInRange('permittivityRelative', input.permittivityRelative, 1, 1e5, '(relative permittivity)');
   const temperature_K = requireInRange('temperature_K', input.temperature_K, 200, 500, 'K');
   const offset_V = referenceOffset_V(input.reference, { pH: input.pH, temperature_K });
-  if (!Array.isArray(input.rows) || input.rows.length < 3) {
-    throw new InputError('rows', `${Array.isArray(input.rows) ? input.rows.length : 0} points given`, 'at least 3 capacitance-voltage points');
-  }
-  const potentials: number[] = [];
-  const inverseSquare: number[] = [];
-  input.rows.forEach((row, index) => {
-    const field = `rows[${index}]`;
-    requireInRange(`${field}.potential_V`, row.potential_V, -100, 100, 'V');
-    let perArea: number;
-    if (row.capacitance_F_per_m2 !== undefined && row.capacitance_F !== undefined) {
-      throw new InputError(field, 'give either capacitance_F or capacitance_F_per_m2, not both');
-    } else if (row.capacitance_F_per_m2 !== undefined) {
-      perArea = requirePositive(`${field}.capacitance_F_per_m2`, row.capacitance_F_per_m2, 'F/m^2');
-    } else if (row.capacitance_F !== undefined) {
-      if (input.electrodeArea_m2 === undefined) {
-        throw new InputError('electrodeArea_m2', 'needed to turn capacitance_F into capacitance per area', '1e-10 to 1 m^2');
-      }
-      const area = requireInRange('electrodeArea_m2', input.electrodeArea_m2, 1e-10, 1, 'm^2');
-      perArea = requirePositive(`${field}.capacitance_F`, row.capacitance_F, 'F') / area;
-    } else {
-      throw new InputError(field, 'missing capacitance', 'capacitance_F (with electrodeArea_m2) or capacitance_F_per_m2');
-    }
-    potentials.push(row.potential_V);
-    inverseSquare.push(1 / perArea ** 2);
-  });
-  // loops, not Math.min(...array): spreading 130k+ values into a call overflows the stack
-  let minV = Infinity;
-  let maxV = -Infinity;
-  for (const v of potentials) {
-    if (v < minV) minV = v;
-    if (v > maxV) maxV = v;
-  }
-  if (!(maxV - minV > 1e-9 * Math.max(1, Math.abs(maxV)))) {
-    throw new InputError('rows', 'all points are at the same potential, so no slope can be fitted', 'at least two distinct potentials');
-  }
+  const { potentials, inverseSquare } = inverseSquareCapacitance(input);
+  const { minV, maxV } = potentialWindow(potentials);
 
   const fit = fitStraightLine(potentials, inverseSquare);
   let largestInverseSquare = 0;
@@ -262,7 +233,56 @@ export function fitMottSchottky(input: MottSchottkyInput): MottSchottkyFit {
     fermiLevelVsVacuum_eV,
     supportWorkFunction_eV: -fermiLevelVsVacuum_eV,
     thermalVoltage_V,
+    permittivityRelative: permittivity,
+    temperature_K,
   };
+}
+
+/** The points as (V, 1/c^2) with c per electrode area; each row checked (3 points at least). */
+function inverseSquareCapacitance(input: MottSchottkyInput): { potentials: number[]; inverseSquare: number[] } {
+  if (!Array.isArray(input.rows) || input.rows.length < 3) {
+    throw new InputError('rows', `${Array.isArray(input.rows) ? input.rows.length : 0} points given`, 'at least 3 capacitance-voltage points');
+  }
+  const potentials: number[] = [];
+  const inverseSquare: number[] = [];
+  input.rows.forEach((row, index) => {
+    const field = `rows[${index}]`;
+    requireInRange(`${field}.potential_V`, row.potential_V, -100, 100, 'V');
+    const perArea = capacitancePerArea(row, field, input.electrodeArea_m2);
+    potentials.push(row.potential_V);
+    inverseSquare.push(1 / perArea ** 2);
+  });
+  return { potentials, inverseSquare };
+}
+
+function capacitancePerArea(row: CapacitanceRow, field: string, electrodeArea_m2: number | undefined): number {
+  if (row.capacitance_F_per_m2 !== undefined && row.capacitance_F !== undefined) {
+    throw new InputError(field, 'give either capacitance_F or capacitance_F_per_m2, not both');
+  }
+  if (row.capacitance_F_per_m2 !== undefined) return requirePositive(`${field}.capacitance_F_per_m2`, row.capacitance_F_per_m2, 'F/m^2');
+  if (row.capacitance_F === undefined) {
+    throw new InputError(field, 'missing capacitance', 'capacitance_F (with electrodeArea_m2) or capacitance_F_per_m2');
+  }
+  if (electrodeArea_m2 === undefined) {
+    throw new InputError('electrodeArea_m2', 'needed to turn capacitance_F into capacitance per area', '1e-10 to 1 m^2');
+  }
+  const area = requireInRange('electrodeArea_m2', electrodeArea_m2, 1e-10, 1, 'm^2');
+  return requirePositive(`${field}.capacitance_F`, row.capacitance_F, 'F') / area;
+}
+
+/** Lowest and highest potential; refuses a window of zero width (no slope). */
+function potentialWindow(potentials: readonly number[]): { minV: number; maxV: number } {
+  // loops, not Math.min(...array): spreading 130k+ values into a call overflows the stack
+  let minV = Infinity;
+  let maxV = -Infinity;
+  for (const v of potentials) {
+    if (v < minV) minV = v;
+    if (v > maxV) maxV = v;
+  }
+  if (!(maxV - minV > 1e-9 * Math.max(1, Math.abs(maxV)))) {
+    throw new InputError('rows', 'all points are at the same potential, so no slope can be fitted', 'at least two distinct potentials');
+  }
+  return { minV, maxV };
 }
 
 function requirePositive(field: string, value: number, unit: string): number {

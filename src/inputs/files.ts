@@ -12,12 +12,14 @@ import {
   accessSync,
   closeSync,
   constants,
+  existsSync,
   fstatSync,
   mkdirSync,
   openSync,
   readSync,
   realpathSync,
   statSync,
+  writeFileSync,
   type Stats,
 } from 'node:fs';
 import { dirname, isAbsolute, resolve } from 'node:path';
@@ -161,6 +163,49 @@ export function readFileBytes(path: string, field: string, maxBytes: number = MA
  * file, and read-only folders, each with its own one-line InputError naming `field` and the path.
  */
 export function createFolder(path: string, field: string): string {
+  const { absolute, missing } = planFolder(path, field);
+  // create from the top down, one level at a time
+  for (let k = missing.length - 1; k >= 0; k--) {
+    const level = missing[k]!;
+    try {
+      mkdirSync(level);
+    } catch (err) {
+      if ((err as NodeJS.ErrnoException).code === 'EEXIST' && statSync(level).isDirectory()) continue;
+      return refuse(path, field, describeFolderErrno(err, dirname(level)));
+    }
+  }
+  return absolute;
+}
+
+/**
+ * Write a user-named output file (CSV, SVG, JSON): the folder it goes into must exist (checked like createFolder:
+ * not in /proc, /sys, /dev, writable), a folder of that name is refused, and write errors (read-only file, full
+ * disk) are an InputError naming `field` and the path.
+ */
+export function writeTextFile(path: string, text: string, field: string): void {
+  checkPathText(path, field);
+  const absolute = resolve(path);
+  const parent = dirname(absolute);
+  if (!existsSync(parent)) refuse(path, field, 'its folder does not exist');
+  checkFolderPath(parent, field);
+  if (systemRootOf(absolute) !== undefined) refuse(path, field, 'output files cannot be written there');
+  try {
+    writeFileSync(absolute, text);
+  } catch (err) {
+    refuse(path, field, describeErrno(err));
+  }
+}
+
+/**
+ * The checks of createFolder without creating anything: for commands that refuse a bad output path at once but
+ * create the folder only after their input is known to be good. Returns the absolute path.
+ */
+export function checkFolderPath(path: string, field: string): string {
+  return planFolder(path, field).absolute;
+}
+
+/** Every check of createFolder; the folders still missing, deepest first. */
+function planFolder(path: string, field: string): { absolute: string; missing: string[] } {
   checkPathText(path, field);
   const absolute = resolve(path);
   // the nearest existing ancestor, resolved through symbolic links
@@ -195,17 +240,7 @@ export function createFolder(path: string, field: string): string {
     return refuse(path, field, missing.length === 0 ? 'exists and is not a folder' : `${shownPath(existing)} is a file, not a folder`);
   }
   checkWritable(path, field, real, existing);
-  // create from the top down, one level at a time
-  for (let k = missing.length - 1; k >= 0; k--) {
-    const level = missing[k]!;
-    try {
-      mkdirSync(level);
-    } catch (err) {
-      if ((err as NodeJS.ErrnoException).code === 'EEXIST' && statSync(level).isDirectory()) continue;
-      return refuse(path, field, describeFolderErrno(err, dirname(level)));
-    }
-  }
-  return isAbsolute(absolute) ? absolute : resolve(absolute);
+  return { absolute: isAbsolute(absolute) ? absolute : resolve(absolute), missing };
 }
 
 function checkWritable(path: string, field: string, real: string, shown: string): void {
@@ -253,84 +288,103 @@ export interface CsvRecord {
  * no spread of arrays into calls, so 130k+ rows are fine. Every error names the file and line.
  */
 export function parseCsvRecords(text: string, fileLabel: string): CsvRecord[] {
-  const records: CsvRecord[] = [];
-  let cells: string[] = [];
-  let cell = '';
-  let quoted = false;
-  let cellWasQuoted = false;
-  let line = 1;
-  let recordLine = 1;
-  let atRecordStart = true;
-  let skipping = false;
+  const st: CsvScan = { fileLabel, records: [], cells: [], cell: '', quoted: false, cellWasQuoted: false, line: 1, recordLine: 1, atRecordStart: true, skipping: false };
   const source = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-
-  const endRecord = () => {
-    cells.push(cell);
-    const blank = cells.length === 1 && cells[0]!.trim() === '' && !cellWasQuoted;
-    if (!blank) records.push({ line: recordLine, cells });
-    cells = [];
-    cell = '';
-    cellWasQuoted = false;
-    atRecordStart = true;
-  };
-
-  for (let i = 0; i < source.length; i++) {
+  for (let i = 0; i < source.length; ) {
     const ch = source[i]!;
-    if (skipping) {
-      if (ch === '\n') {
-        skipping = false;
-        line++;
-        atRecordStart = true;
-      }
-      continue;
-    }
-    if (atRecordStart) {
-      recordLine = line;
-      atRecordStart = false;
-      if (ch === '#') {
-        skipping = true;
-        continue;
-      }
-    }
-    if (quoted) {
-      if (ch === '"') {
-        if (source[i + 1] === '"') {
-          cell += '"';
-          i++;
-        } else {
-          quoted = false;
-        }
-      } else {
-        if (ch === '\n') line++;
-        cell += ch;
-      }
-      continue;
-    }
-    if (ch === '"') {
-      if (cell.trim() !== '') {
-        throw new InputError(`${fileLabel}: row ${line}`, 'stray double quote inside an unquoted cell', 'quote whole cells: "like this"');
-      }
-      cell = '';
-      quoted = true;
-      cellWasQuoted = true;
-    } else if (ch === ',') {
-      cells.push(cell);
-      cell = '';
-      cellWasQuoted = false;
-    } else if (ch === '\n') {
-      if (cell.endsWith('\r')) cell = cell.slice(0, -1);
-      endRecord();
-      line++;
-    } else {
-      cell += ch;
+    if (commentOrRecordStart(st, ch)) i++;
+    else if (st.quoted) i += quotedChar(st, ch, source[i + 1]);
+    else {
+      plainChar(st, ch);
+      i++;
     }
   }
-  if (quoted) {
-    throw new InputError(`${fileLabel}: row ${recordLine}`, 'a quoted cell is never closed', 'matching double quotes');
+  if (st.quoted) {
+    throw new InputError(`${fileLabel}: row ${st.recordLine}`, 'a quoted cell is never closed', 'matching double quotes');
   }
-  if (!skipping && !atRecordStart) {
-    if (cell.endsWith('\r')) cell = cell.slice(0, -1);
-    endRecord();
+  if (!st.skipping && !st.atRecordStart) {
+    if (st.cell.endsWith('\r')) st.cell = st.cell.slice(0, -1);
+    endRecord(st);
   }
-  return records;
+  return st.records;
+}
+
+/** State of the one-pass CSV scan. */
+interface CsvScan {
+  fileLabel: string;
+  records: CsvRecord[];
+  cells: string[];
+  cell: string;
+  quoted: boolean;
+  cellWasQuoted: boolean;
+  /** current line (1-based) and the line where the current record started */
+  line: number;
+  recordLine: number;
+  atRecordStart: boolean;
+  /** inside a comment line ("#" at the start of a record) */
+  skipping: boolean;
+}
+
+function endRecord(st: CsvScan): void {
+  st.cells.push(st.cell);
+  const blank = st.cells.length === 1 && st.cells[0]!.trim() === '' && !st.cellWasQuoted;
+  if (!blank) st.records.push({ line: st.recordLine, cells: st.cells });
+  st.cells = [];
+  st.cell = '';
+  st.cellWasQuoted = false;
+  st.atRecordStart = true;
+}
+
+/** Comment lines and the start of a record; true when the character was used up here. */
+function commentOrRecordStart(st: CsvScan, ch: string): boolean {
+  if (st.skipping) {
+    if (ch === '\n') {
+      st.skipping = false;
+      st.line++;
+      st.atRecordStart = true;
+    }
+    return true;
+  }
+  if (!st.atRecordStart) return false;
+  st.recordLine = st.line;
+  st.atRecordStart = false;
+  st.skipping = ch === '#';
+  return st.skipping;
+}
+
+/** One character inside a quoted cell ("" is a literal quote); returns the number of characters used. */
+function quotedChar(st: CsvScan, ch: string, next: string | undefined): number {
+  if (ch === '"') {
+    if (next === '"') {
+      st.cell += '"';
+      return 2;
+    }
+    st.quoted = false;
+    return 1;
+  }
+  if (ch === '\n') st.line++;
+  st.cell += ch;
+  return 1;
+}
+
+/** One character outside quotes: a quote opens a cell, a comma ends one, a line feed ends the record. */
+function plainChar(st: CsvScan, ch: string): void {
+  if (ch === '"') {
+    if (st.cell.trim() !== '') {
+      throw new InputError(`${st.fileLabel}: row ${st.line}`, 'stray double quote inside an unquoted cell', 'quote whole cells: "like this"');
+    }
+    st.cell = '';
+    st.quoted = true;
+    st.cellWasQuoted = true;
+  } else if (ch === ',') {
+    st.cells.push(st.cell);
+    st.cell = '';
+    st.cellWasQuoted = false;
+  } else if (ch === '\n') {
+    if (st.cell.endsWith('\r')) st.cell = st.cell.slice(0, -1);
+    endRecord(st);
+    st.line++;
+  } else {
+    st.cell += ch;
+  }
 }

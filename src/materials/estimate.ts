@@ -37,7 +37,9 @@ interface RawElement {
 }
 
 const require = createRequire(import.meta.url);
-const ELEMENTS = (require('periodic-table') as { symbols: Record<string, RawElement> }).symbols;
+// loaded on first use (start-up time of the command line); a constant table once loaded
+let elementsMemo: Record<string, RawElement> | undefined;
+const elements = (): Record<string, RawElement> => (elementsMemo ??= (require('periodic-table') as { symbols: Record<string, RawElement> }).symbols);
 
 export interface ElementTerm {
   symbol: string;
@@ -121,7 +123,7 @@ function numeric(v: number | string): number | undefined {
 
 /** First ionisation energy and electron affinity (conventional sign: positive = bound anion), eV. */
 export function atomicEnergies(symbol: string): { ionizationEnergy_eV: number; electronAffinity_eV: number } {
-  const el = Object.prototype.hasOwnProperty.call(ELEMENTS, symbol) ? ELEMENTS[symbol] : undefined;
+  const el = Object.prototype.hasOwnProperty.call(elements(), symbol) ? elements()[symbol] : undefined;
   if (el === undefined) throw new InputError('formula', `unknown element "${symbol}"`);
   const ie = numeric(el.ionizationEnergy);
   const ea = numeric(el.electronAffinity);

@@ -37,4 +37,4 @@ export {
   type ElectronAffinityEstimate,
   type ElementTerm,
 } from './estimate.js';
-export { MetalEntrySchema, SupportEntrySchema, CslItemSchema, MaterialsFileSchema, ReferencesFileSchema, BOUNDS } from './schema.js';
+export { materialsSchemas, BOUNDS } from './schema.js';

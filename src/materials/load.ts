@@ -5,14 +5,19 @@
 // dist/materials/load.js when compiled: both are two levels below the root).
 // User files (--materials FILE, JSON or YAML) may hold any of "metals", "supports", "references";
 // an entry whose name (or reference id) already exists replaces the earlier one as a whole.
+//
+// Start-up cost: the built-in files are validated by test/materials.test.ts (validateBuiltinLibrary) and
+// trusted at run time (JSON.parse only); zod (src/materials/schema.ts) and yaml are loaded only when a user
+// file needs them.
 import { fileURLToPath } from 'node:url';
 import { extname } from 'node:path';
-import { parse as parseYaml } from 'yaml';
+import { createRequire } from 'node:module';
+import { readFileSync } from 'node:fs';
 import type { ZodError, ZodIssue } from 'zod';
 import { InputError } from '../errors.js';
 import { MAX_INPUT_FILE_BYTES, readTextFile } from '../inputs/files.js';
 import type { CslItem, InputProvenance, MaterialsLibrary, MetalRecord, PropertyValue, SupportRecord } from './types.js';
-import { MaterialsFileSchema, ReferencesFileSchema, type MaterialsFile, type MetalEntry, type SupportEntry } from './schema.js';
+import { materialsSchemas, type MaterialsFile, type MetalEntry, type SupportEntry } from './schema.js';
 
 const BUILTIN_DIR = new URL('../../materials/', import.meta.url);
 const BUILTIN_FILES = ['references.json', 'metals.json', 'supports.json'] as const;
@@ -23,6 +28,8 @@ type Section = 'metals' | 'supports' | 'references';
 interface ParsedFile {
   label: string;
   data: MaterialsFile;
+  /** the package's own files: validated by the tests, so their sources are not re-checked at run time */
+  trusted?: boolean;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -45,7 +52,9 @@ export function readDataFile(path: string, label: string = path): unknown {
   const ext = extname(path).toLowerCase();
   if (ext === '.yaml' || ext === '.yml') {
     try {
-      return parseYaml(text) as unknown;
+      // yaml is loaded only for YAML files (synchronously, its CommonJS build)
+      const { parse } = createRequire(import.meta.url)('yaml') as typeof import('yaml');
+      return parse(text) as unknown;
     } catch (err) {
       return fail(label, `not valid YAML: ${(err as Error).message}`);
     }
@@ -108,14 +117,14 @@ export function parseMaterialsData(raw: unknown, label: string): MaterialsFile {
   if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) {
     return fail(label, 'expected an object with any of the keys "metals", "supports", "references"');
   }
-  const result = MaterialsFileSchema.safeParse(raw);
+  const result = materialsSchemas().MaterialsFileSchema.safeParse(raw);
   if (!result.success) return fail(label, formatZodError(result.error, raw));
   checkUniqueNames(result.data, label);
   return result.data;
 }
 
 function parseReferencesData(raw: unknown, label: string): MaterialsFile {
-  const result = ReferencesFileSchema.safeParse(raw);
+  const result = materialsSchemas().ReferencesFileSchema.safeParse(raw);
   if (!result.success) {
     const issue = result.error.issues[0]!;
     const [index, ...rest] = issue.path;
@@ -185,7 +194,7 @@ export function buildLibrary(files: ParsedFile[]): MaterialsLibrary {
   const supports = new Map<string, SupportRecord>();
   for (const f of files) for (const ref of f.data.references ?? []) references.set(ref.id, ref as CslItem);
   for (const f of files) {
-    checkSources(f, references);
+    if (f.trusted !== true) checkSources(f, references);
     for (const m of f.data.metals ?? []) metals.set(m.name, toMetal(m));
     for (const s of f.data.supports ?? []) supports.set(s.name, toSupport(s));
   }
@@ -195,18 +204,29 @@ export function buildLibrary(files: ParsedFile[]): MaterialsLibrary {
 function deepFreeze<T>(x: T): T {
   if (typeof x === 'object' && x !== null && !Object.isFrozen(x)) {
     Object.freeze(x);
-    for (const v of Object.values(x as Record<string, unknown>)) deepFreeze(v);
+    for (const k in x) deepFreeze((x as Record<string, unknown>)[k]); // for-in: no array per object (start-up time)
   }
   return x;
 }
 
-function readBuiltinFiles(): ParsedFile[] {
+/** The built-in files; `validate` runs the full schema and source checks (tests), otherwise they are trusted. */
+function readBuiltinFiles(validate: boolean): ParsedFile[] {
   return BUILTIN_FILES.map((name) => {
     const path = fileURLToPath(new URL(name, BUILTIN_DIR));
     const label = `materials/${name}`;
+    if (!validate) {
+      // the package's own files: a plain read (the user-file checks of readDataFile are for untrusted paths)
+      const raw = JSON.parse(readFileSync(path, 'utf8')) as unknown;
+      return { label, data: (name === 'references.json' ? { references: raw } : raw) as MaterialsFile, trusted: true };
+    }
     const raw = readDataFile(path, label);
     return { label, data: name === 'references.json' ? parseReferencesData(raw, label) : parseMaterialsData(raw, label) };
   });
+}
+
+/** The built-in library with every check a user file gets (schema, unique names, sources); for tests. */
+export function validateBuiltinLibrary(): MaterialsLibrary {
+  return buildLibrary(readBuiltinFiles(true));
 }
 
 // Pure memo: the built-in files are part of the package and do not change while the process runs;
@@ -214,11 +234,11 @@ function readBuiltinFiles(): ParsedFile[] {
 let builtinFilesMemo: ParsedFile[] | undefined;
 
 function builtinFiles(): ParsedFile[] {
-  builtinFilesMemo ??= deepFreeze(readBuiltinFiles());
+  builtinFilesMemo ??= deepFreeze(readBuiltinFiles(false));
   return builtinFilesMemo;
 }
 
-/** The library shipped in materials/ (validated; records are frozen). */
+/** The library shipped in materials/ (validated by the tests; records are frozen). */
 export function loadBuiltinLibrary(): MaterialsLibrary {
   return buildLibrary(builtinFiles());
 }

@@ -11,6 +11,7 @@ export function formatFit(fit: ReturnType<typeof fitMottSchottky>): string {
     `  flat-band potential (SHE) ${fit.flatBandPotential_V_SHE.toFixed(4)} V`,
     `  Fermi level vs vacuum     ${fit.fermiLevelVsVacuum_eV.toFixed(3)} eV (absolute SHE 4.44 V, Trasatti 1986)`,
     `  support work function     ${fit.supportWorkFunction_eV.toFixed(3)} eV  (use as --support-work-function)`,
+    `  (save this fit with --json and give it to \`bandbend contact --fit-from FILE\`: donor density and permittivity)`,
   ];
   return `${lines.join('\n')}\n`;
 }

@@ -15,7 +15,7 @@ export function formatScreenTable(rows: ScreenRow[]): string {
     num(r.electronsPerParticle, 3),
     num(r.chargeEquivalentWidth_nm, 3),
     r.probabilitySupportToMetal === null ? '' : r.probabilitySupportToMetal.toFixed(2),
-    r.error !== '' ? r.error.slice(0, 60) : r.warnings,
+    r.error !== '' ? r.error.slice(0, 60) : r.warnings.map((w) => w.code).join(' '),
   ]);
   const widths = header.map((h, i) => Math.max(h.length, ...body.map((b) => b[i]!.length)));
   const line = (cells: string[]): string => cells.map((c, i) => c.padEnd(widths[i]!)).join('  ').trimEnd();

@@ -5,7 +5,7 @@ import { fileURLToPath } from 'node:url';
 import { join } from 'node:path';
 import { z } from 'zod';
 import { solveContact } from '../contact.js';
-import { CslItemSchema } from '../materials/schema.js';
+import { materialsSchemas, type CslItemEntry } from '../materials/schema.js';
 import type { ContactResult, BarrierModel } from '../types.js';
 import {
   bandBendingProfile,
@@ -113,7 +113,7 @@ export interface Gallery {
   barriers: BarrierRow[];
   charges: ChargeRow[];
   bandBending: BandBendingRow[];
-  references: z.infer<typeof CslItemSchema>[];
+  references: CslItemEntry[];
 }
 
 /** Folder of the gallery shipped with the package (works from src/ under vitest and from dist/). */
@@ -137,7 +137,7 @@ export function loadGallery(dir: string = GALLERY_DIR): Gallery {
   const barriers = parseOrThrow(fileSchema('barrier', BarrierRowSchema), readJson(join(dir, 'barriers.json')), 'barriers.json').rows;
   const charges = parseOrThrow(fileSchema('charge', ChargeRowSchema), readJson(join(dir, 'charge.json')), 'charge.json').rows;
   const bandBending = parseOrThrow(fileSchema('bandBending', BandBendingRowSchema), readJson(join(dir, 'bandbending.json')), 'bandbending.json').rows;
-  const references = parseOrThrow(z.array(CslItemSchema), readJson(join(dir, 'references.json')), 'references.json');
+  const references = parseOrThrow(materialsSchemas().ReferencesFileSchema, readJson(join(dir, 'references.json')), 'references.json');
   const refIds = new Set(references.map((r) => r.id));
   const seen = new Set<string>();
   for (const row of [...barriers, ...charges, ...bandBending]) {
