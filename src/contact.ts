@@ -2,7 +2,7 @@
 // inputs -> materials -> bulk equilibrium -> barrier -> electrostatics -> derived results.
 import { InputError } from './errors.js';
 import { propagateUncertainty } from './derived/uncertainty.js';
-import { resolveContact, withVacancyDonors, type ContactOptions, type ResolvedContact } from './inputs/contactInput.js';
+import { resolveContact, withVacancyDonors, supportElectronicOf, type ContactOptions, type ResolvedContact } from './inputs/contactInput.js';
 import { makeChargeModel, solveBulkNeutrality, type ChargeModel } from './bulk/equilibrium.js';
 import { barrierHeight, empiricalPinningFactor, type BarrierResult } from './barrier/barrier.js';
 import {
@@ -78,22 +78,7 @@ const GEOMETRIES: Readonly<Record<GeometryKind, (r: ResolvedContact) => CrossSec
 };
 
 function chargeModelOf(r: ResolvedContact): ChargeModel {
-  const s = r.support;
-  return makeChargeModel({
-    temperature_K: r.temperature_K,
-    bandGap_eV: s.bandGap_eV,
-    electronMass_me: s.electronMass_me,
-    holeMass_me: s.holeMass_me,
-    donors: { density_m3: s.donors_m3, kind: s.donorKind, level1_eV: s.donorLevel1_eV, level2_eV: s.donorLevel2_eV },
-    acceptors: { density_m3: s.acceptors_m3, level_eV: s.acceptorLevel_eV },
-    statistics: r.statistics,
-    // localised (small-polaron) states hold the donor electrons in reducible oxides (Ce 4f, Ti 3d)
-    ...(s.localisedSites_m3 !== undefined && s.localisedSites_m3 > 0 && s.localisedLevel_eV !== undefined
-      ? { localised: { siteDensity_m3: s.localisedSites_m3, level_eV: s.localisedLevel_eV } }
-      : {}),
-    // donors delocalise above the Mott density and their level is lowered below it (Edwards & Sienko 1978)
-    mott: { relativePermittivity: s.permittivity },
-  });
+  return makeChargeModel(supportElectronicOf(r.support, r.temperature_K, r.statistics));
 }
 
 /** Interface-state parameters: D_it given, or from the slope S (given or library, else empirical) and the layer. */

@@ -49,3 +49,15 @@ describe('--support-work-function in a contact', () => {
     expect(() => solveContact(tungstenOnSilicon({ supportWorkFunction: 4.25 }))).toThrow(/--donors: only used without --support-work-function/);
   });
 });
+
+describe('the measured support work function is honoured where the support has localised states', () => {
+  // Vacuum-level alignment E_C - E_F = Phi_s - chi (Sze & Ng, Physics of Semiconductor Devices, 3rd ed., sec. 3.2).
+  // Anatase has library small-polaron sites (Ti 3d) that take up donor electrons: the inversion must use the same
+  // charge model as the solve, or the result reports another Fermi level (before: 5.0 eV given, 5.97 eV reported).
+  for (const workFunction_eV of [5.0, 4.6]) {
+    it(`TiO2-anatase, Phi_s = ${workFunction_eV} eV: the result's support work function is the given one`, () => {
+      const r = solveContact({ metal: 'Pt', support: 'TiO2-anatase', supportWorkFunction: `${workFunction_eV} eV`, temperature: '300 K' });
+      expect(Math.abs(r.supportWorkFunction_eV - workFunction_eV)).toBeLessThan(1e-6);
+    });
+  }
+});

@@ -32,7 +32,7 @@ import {
   type SampledField,
 } from './parameters.js';
 import type { BarrierModel, DefectsInfo, GeometryKind, PretreatmentInfo, Statistics } from '../types.js';
-import type { DonorKind } from '../bulk/equilibrium.js';
+import type { DonorKind, SupportElectronic } from '../bulk/equilibrium.js';
 
 export type { ContactOptions } from './parameters.js';
 export { withVacancyDonors } from './defectInputs.js';
@@ -438,20 +438,34 @@ function checkResolved(c: Resolution): void {
 
 /** The donors that put the bulk Fermi level where the measured support work function says (E_C - E_F = Phi_s - chi). */
 function donorsForWorkFunction(c: Resolution, s: ResolvedSupport, workFunction_eV: number): number {
-  const donors_m3 = donorsForFermiLevel(
-    {
-      temperature_K: c.num('temperature')!,
-      bandGap_eV: s.bandGap_eV,
-      electronMass_me: s.electronMass_me,
-      holeMass_me: s.holeMass_me,
-      donors: { density_m3: 0, kind: s.donorKind, level1_eV: s.donorLevel1_eV, level2_eV: s.donorLevel2_eV },
-      acceptors: { density_m3: s.acceptors_m3, level_eV: s.acceptorLevel_eV },
-      statistics: c.value('statistics') as Statistics,
-    },
-    workFunction_eV - s.electronAffinity_eV,
-  );
+  // the same electronic description as the contact solve (localised states, Mott criterion), without donors
+  const electronic = supportElectronicOf(s, c.num('temperature')!, c.value('statistics') as Statistics, 0);
+  const donors_m3 = donorsForFermiLevel(electronic, workFunction_eV - s.electronAffinity_eV);
   c.inputs.push({ field: 'donor density (from the support work function)', value: donors_m3 * 1e-6, unit: 'cm^-3', origin: 'derived', note: 'charge neutrality at E_C - E_F = Phi_s - chi' });
   return donors_m3;
+}
+
+/**
+ * The support as the bulk charge model sees it: band edges, masses, donors (density donors_m3, default the resolved
+ * one), acceptors, localised (small-polaron) states where given, and the Mott criterion (Edwards & Sienko 1978).
+ * One place for the contact solve and for the inversion of a measured support work function.
+ */
+export function supportElectronicOf(s: ResolvedSupport, temperature_K: number, statistics: Statistics, donors_m3: number = s.donors_m3): SupportElectronic {
+  return {
+    temperature_K,
+    bandGap_eV: s.bandGap_eV,
+    electronMass_me: s.electronMass_me,
+    holeMass_me: s.holeMass_me,
+    donors: { density_m3: donors_m3, kind: s.donorKind, level1_eV: s.donorLevel1_eV, level2_eV: s.donorLevel2_eV },
+    acceptors: { density_m3: s.acceptors_m3, level_eV: s.acceptorLevel_eV },
+    statistics,
+    // localised (small-polaron) states hold the donor electrons in reducible oxides (Ce 4f, Ti 3d)
+    ...(s.localisedSites_m3 !== undefined && s.localisedSites_m3 > 0 && s.localisedLevel_eV !== undefined
+      ? { localised: { siteDensity_m3: s.localisedSites_m3, level_eV: s.localisedLevel_eV } }
+      : {}),
+    // donors delocalise above the Mott density and their level is lowered below it (Edwards & Sienko 1978)
+    mott: { relativePermittivity: s.permittivity },
+  };
 }
 
 function assembleResolved(c: Resolution): ResolvedContact {
