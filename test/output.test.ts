@@ -615,8 +615,10 @@ describe('terminal summary', () => {
     expect(text).toContain('electrons move from the support into the metal');
     expect(text).toContain('[synthetic]');
     expect(text).not.toContain('\u001b[');
-    const lines = text.split('\n').filter((l) => l.startsWith('  band bending') || l.startsWith('  Debye length'));
+    const lines = text.split('\n').filter((l) => l.startsWith('  band bending  ') || l.startsWith('  Debye length'));
     expect(lines.length).toBe(2);
+    // the nanoscale rows (issue 11): interface states and what photoemission sees
+    expect(text).toMatch(/band bending seen by photoemission\s+[+-]?\d/);
     expect(lines[0]!.search(/\S+\s*$/) > 0).toBe(true);
     const valueColumn = (l: string) => l.slice(2).search(/ {2}\S/);
     expect(valueColumn(lines[0]!)).toBe(valueColumn(lines[1]!));

@@ -59,6 +59,30 @@ export function alignRows(rows: readonly (readonly [string, string])[], indent =
   return rows.map(([label, value]) => `${indent}${label.padEnd(width)}  ${value}`);
 }
 
+/**
+ * Rows of the nanoscale contact (issue 11): interface states and their share of the particle's electrons, the
+ * size-corrected particle work function, localised electrons of the support, and the band bending photoemission sees.
+ */
+function nanoscaleRows(result: ContactResult): [string, string][] {
+  const rows: [string, string][] = [];
+  const is = result.interfaceStates;
+  if (is !== null) {
+    rows.push([
+      'interface states',
+      `${formatQuantity(is.stateDensity_per_eV_cm2, 'eV^-1 cm^-2')}, neutral level ${formatQuantity(is.neutralLevelAboveValence_eV, 'eV')} above E_V; ` +
+        `electrons per particle from interface states ${formatSigned(is.electronsFromInterfaceStates)}, from the space charge ${formatSigned(is.electronsFromSpaceCharge)}`,
+    ]);
+  }
+  if (result.geometry !== 'planar') rows.push(['particle work function (size-corrected)', formatQuantity(result.particleWorkFunction_eV, 'eV')]);
+  if (result.bulk.localisedElectrons_cm3 > 0) rows.push(['localised electrons (bulk, polarons)', formatQuantity(result.bulk.localisedElectrons_cm3, 'cm^-3')]);
+  const pe = result.photoemission;
+  rows.push([
+    'band bending seen by photoemission',
+    `${formatSigned(pe.observedBandBending_eV)} eV (${pe.coreLevel}, ${formatNumber(pe.photonEnergy_eV, 5)} eV photons, mean free path ${formatQuantity(pe.inelasticMeanFreePath_nm, 'nm')})`,
+  ]);
+  return rows;
+}
+
 /** The key results of one contact as [label, value] rows (plain text). */
 export function keyResultRows(result: ContactResult): [string, string][] {
   const kT = thermalEnergy_eV(result.temperature_K);
@@ -76,6 +100,7 @@ export function keyResultRows(result: ContactResult): [string, string][] {
     ['interface field', formatQuantity(result.interfaceField_V_per_m, 'V/m')],
     ['image-force lowering', formatQuantity(result.imageForceLowering_eV, 'eV')],
     ['electrons per particle', `${formatSigned(result.electronsPerParticle)} (d = ${formatNumber(result.particle.diameter_nm)} nm)`],
+    ...nanoscaleRows(result),
   ];
   if (result.exchange) {
     const e = result.exchange;
