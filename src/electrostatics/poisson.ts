@@ -86,6 +86,11 @@ const BASE_COARSENING = 3;
 const ASYMPTOTIC_RATIO = [3.6, 4.5] as const;
 /** the bisection stops before the finest mesh exceeds this many nodes */
 const MAX_FINE_NODES = 40000;
+/** Newton stops after applying a step below this (times max(1, |u_s|)), in kT */
+const NEWTON_STOP = 1e-7;
+/** ... or after a step s whose predicted remaining error K s^2 is below this, kT */
+const PREDICTED_STOP = Number(process.env['PSTOP'] ?? 1e-9);
+const LINEAR_STOP = Number(process.env['LSTOP'] ?? 1e-4);
 
 /**
  * Solve the nonlinear Poisson equation on the cross-section with a charge error controlled to a tolerance.
@@ -130,6 +135,8 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
     geometry,
     residue: firstIntegral.bulkResidue_m3,
     farEnd: screened ? screenedTail(model, xiBulk, beta, firstIntegral.bulkResidue_m3, geometry) : null,
+    contraction: 0,
+    workspace: new Float64Array(0),
   };
   const mesh = buildMesh({
     firstIntegral,
@@ -158,10 +165,12 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
   let bound = 1;
   const sums = [coarse.chargeSum];
   let previousInRange = false;
+  let older: Float64Array | null = null;
   for (;;) {
-    // next level: bisect every cell, start Newton from the interpolated coarser solution
+    // next level: bisect every cell, start Newton from the interpolated coarser solution, corrected by the
+    // Richardson estimate of its discretisation error once two levels are known
     const fineX = bisectMesh(x);
-    const fineGuess = interpolateToBisected(x, coarse.u);
+    const fineGuess = interpolateToBisected(x, older === null ? coarse.u : extrapolateLevel(coarse.u, older));
     fine = newtonOnMesh(system, uSurface, fineX, fineGuess, maxIterations);
     iterations += fine.iterations;
     levels++;
@@ -195,6 +204,7 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
       else bound = Math.max(Math.abs(x2 - x1), Math.abs(d2), Math.abs(d1)) / scale;
       if ((bound <= tolerance && asymptotic) || capped) break;
     }
+    older = coarse.u;
     coarse = fine;
   }
 
@@ -208,7 +218,7 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
   return {
     x_m: x,
     u: fine.u,
-    netCharge_m3: fine.netCharge,
+    netCharge_m3: fine.netCharge.slice(),
     totalCharge_C,
     interfaceSlope_per_m,
     iterations,
@@ -224,6 +234,19 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
     debyeLength_m: Number.isFinite(debye) && debye > 0 ? debye : null,
     firstIntegral,
   };
+}
+
+/**
+ * Richardson extrapolation of the profile: the scheme is second order, so u_k - u_(k-1) ~ (u_(k-1) - u_(k-2)) / 4
+ * at the nodes the two meshes share (every other node of the finer); the correction is interpolated linearly to
+ * the nodes in between. Gives Newton on the next level a guess within ~h^4 of its own discrete solution.
+ */
+function extrapolateLevel(u: Float64Array, older: Float64Array): Float64Array {
+  const n = u.length;
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i += 2) out[i] = u[i]! + 0.25 * (u[i]! - older[i >> 1]!);
+  for (let i = 1; i < n; i += 2) out[i] = u[i]! + 0.5 * (out[i - 1]! - u[i - 1]! + out[i + 1]! - u[i + 1]!);
+  return out;
 }
 
 /**
@@ -266,6 +289,8 @@ interface FarEnd {
 
 // 5-point Gauss–Legendre nodes and weights on [-1, 1] (Abramowitz & Stegun, Table 25.4)
 const GL_NODES = [-0.906179845938664, -0.5384693101056831, 0, 0.5384693101056831, 0.906179845938664];
+/** |u| below which the far-end G(u) comes from its Taylor series, kT */
+const SERIES_MAX_U = 1e-3;
 const GL_WEIGHTS = [0.2369268850561891, 0.4786286704993665, 0.5688888888888889, 0.4786286704993665, 0.2369268850561891];
 
 /**
@@ -277,7 +302,22 @@ const GL_WEIGHTS = [0.2369268850561891, 0.4786286704993665, 0.5688888888888889, 
  */
 function screenedTail(model: ChargeModel, xiBulk: number, beta: number, residue: number, geometry: CrossSection): FarEnd {
   const charge = new Float64Array(2);
+  // Taylor series of G about the bulk for the small |u| at the far end: G = s1 u^2/2 + s2 u^3/6 + s3 u^4/24 with
+  // s_k = d^k N/du^k at u = 0 (s2, s3 by central differences of the analytic dN/du over +/-1e-2 kT); for
+  // |u| <= SERIES_MAX_U the neglected terms and the difference errors are < 1e-8 of G. Saves a Gauss–Legendre
+  // sweep of the charge model in every residual evaluation.
+  const slopeAt = (u: number): number => {
+    model.netCharge(xiBulk - u, charge);
+    return -charge[1]!;
+  };
+  const h = 1e-2;
+  const s0 = slopeAt(0);
+  const sPlus = slopeAt(h);
+  const sMinus = slopeAt(-h);
+  const s2 = (sPlus - sMinus) / (2 * h);
+  const s3 = (sPlus - 2 * s0 + sMinus) / (h * h);
   const G = (u: number): number => {
+    if (Math.abs(u) <= SERIES_MAX_U) return u * u * (0.5 * s0 + u * (s2 / 6 + (u * s3) / 24));
     const pieces = Math.max(1, Math.ceil(Math.abs(u) / 0.5));
     const width = u / pieces;
     let sum = 0;
@@ -361,6 +401,10 @@ interface DiscreteSystem {
   residue: number;
   /** screened-tail condition at the far end; null = zero field (finite thickness) */
   farEnd: FarEnd | null;
+  /** largest Newton contraction constant K (s_k / s_(k-1)^2) measured so far in this solve; 0 = none yet */
+  contraction: number;
+  /** work arrays shared by the mesh solves (see acquireWorkspace) */
+  workspace: Float64Array;
 }
 
 interface MeshSolution {
@@ -371,7 +415,22 @@ interface MeshSolution {
   iterations: number;
 }
 
-/** Damped Newton for the finite-volume system on one mesh; u[0] is the Dirichlet value. */
+/** views per node in one mesh solve's workspace */
+const WORK_ARRAYS = 21;
+
+/**
+ * The work arrays of a mesh solve, shared by every mesh of one problem: allocated once for the mesh the solve
+ * expects to finish on (eight times the first; typed arrays are costly to create and collect), grown when needed.
+ */
+function acquireWorkspace(system: DiscreteSystem, n: number): Float64Array {
+  if (system.workspace.length < WORK_ARRAYS * n) system.workspace = new Float64Array(WORK_ARRAYS * (system.workspace.length === 0 ? 8 : 2) * n);
+  return system.workspace;
+}
+
+/**
+ * Damped Newton for the finite-volume system on one mesh; u[0] is the Dirichlet value. Returns the profile in
+ * `initial`; netCharge is a view of the shared workspace, valid until the next mesh solve.
+ */
 function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array, initial: Float64Array, maxIterations: number): MeshSolution {
   const { model, xiBulk, beta, geometry, residue, farEnd } = system;
   const n = x.length;
@@ -380,11 +439,11 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
   const last = n - 1;
   // geometry factors: face coefficient A/h between node i and i+1, control volume of node i
   // one allocation for every work array of this solve (typed arrays are costly to create one by one)
-  const workspace = new Float64Array(20 * n);
+  const workspace = acquireWorkspace(system, n);
   let slot = 0;
   const take = (): Float64Array => workspace.subarray(n * slot++, n * slot);
   const faceCoefficient = take();
-  const volume = take();
+  const volume = take().fill(0);
   for (let i = 0; i < last; i++) {
     const h = x[i + 1]! - x[i]!;
     faceCoefficient[i] = geometry.faceArea(x[i]!, x[i + 1]!) / h;
@@ -456,6 +515,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
   let u: Float64Array = initial;
   evaluate(u, residual, lower, diag, upper, nodeCharge, nodeSlope);
   let converged = false;
+  let previousFullStep = 0;
   const stepCap = Math.max(10, 0.25 * Math.abs(uSurface));
   while (iterations < maxIterations) {
     iterations++;
@@ -467,9 +527,13 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
     let maxStep = 0;
     for (let i = 1; i < n; i++) maxStep = Math.max(maxStep, Math.abs(step[i]!));
     if (!Number.isFinite(maxStep)) throw new ConvergenceError('non-finite Newton step', iterations);
-    // Newton converges quadratically: after applying a step of 1e-7 kT the remaining error is ~1e-14 kT, far
-    // below anything the charge tolerance can see
-    if (maxStep < 1e-7 * Math.max(1, Math.abs(uSurface))) {
+    // Newton converges quadratically: after applying a step s the remaining error is ~K s^2. K is measured on the
+    // full steps of this solve (K = s_k / s_(k-1)^2, the largest seen kept); once K s^2 is below PREDICTED_STOP
+    // (and s itself below LINEAR_STOP, so that the linearised charge below is exact to ~s^2/2 < 5e-9), the
+    // error left is far below anything the charge tolerance can see. Without a measured K: stop only below 1e-7 kT.
+    if (previousFullStep > 0 && previousFullStep < 1) system.contraction = Math.max(system.contraction, maxStep / (previousFullStep * previousFullStep));
+    const predicted = system.contraction * maxStep * maxStep;
+    if (maxStep < NEWTON_STOP * Math.max(1, Math.abs(uSurface)) || (predicted < PREDICTED_STOP && maxStep < LINEAR_STOP)) {
       for (let i = 1; i < n; i++) u[i] = u[i]! + step[i]!;
       converged = true;
       break;
@@ -509,6 +573,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
       if (t * maxStep < 1e-14) break;
     }
     if (!accepted) throw new ConvergenceError('damped Newton step could not reduce the correction (line search failed)', iterations);
+    previousFullStep = t === 1 ? maxStep : 0;
     // accept the trial point: its residual and Jacobian are already computed
     // plain swaps (destructuring swaps allocate a temporary array in some engines)
     let swap = u;
@@ -535,7 +600,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
   }
   if (!converged) throw new ConvergenceError(`no convergence within ${maxIterations} Newton iterations`, iterations);
 
-  const netCharge = new Float64Array(n);
+  const netCharge = take();
   model.netCharge(xiBulk - u[0]!, charge);
   netCharge[0] = charge[0]! - residue;
   let chargeSum = netCharge[0]! * volume[0]!;
@@ -549,5 +614,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
     farEnd.flux(u[last]!, x[last]!, endFlux);
     chargeSum += (endArea * endFlux[0]!) / beta;
   }
-  return { u, netCharge, chargeSum, iterations };
+  // the profile is returned in the caller's array: the workspace views are reused by the next mesh
+  if (u !== initial) initial.set(u);
+  return { u: initial, netCharge, chargeSum, iterations };
 }
