@@ -6,7 +6,7 @@ import { EPS0_F_PER_M, K_BOLTZMANN_J_PER_K, Q_ELEMENTARY_C } from '../constants.
 import { ConvergenceError } from '../errors.js';
 import type { ChargeModel } from '../bulk/equilibrium.js';
 import type { CrossSection } from './geometry.js';
-import { solveTridiagonal } from './tridiagonal.js';
+import { factorTridiagonal, solveFactoredTridiagonal } from './tridiagonal.js';
 import { bisectMesh, buildMesh, planarFirstIntegral, type PlanarFirstIntegral } from './mesh.js';
 
 export interface PoissonProblem {
@@ -89,8 +89,8 @@ const MAX_FINE_NODES = 40000;
 /** Newton stops after applying a step below this (times max(1, |u_s|)), in kT */
 const NEWTON_STOP = 1e-7;
 /** ... or after a step s whose predicted remaining error K s^2 is below this, kT */
-const PREDICTED_STOP = Number(process.env['PSTOP'] ?? 1e-9);
-const LINEAR_STOP = Number(process.env['LSTOP'] ?? 1e-4);
+const PREDICTED_STOP = 1e-9;
+const LINEAR_STOP = 1e-4;
 
 /**
  * Solve the nonlinear Poisson equation on the cross-section with a charge error controlled to a tolerance.
@@ -149,7 +149,12 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
     farBoundary: screened ? 'screened' : 'zero-field',
   });
   let x = mesh.x;
-  const guess = new Float64Array(x.length);
+  // one buffer for the whole solve: the Newton work arrays sized for the expected finest mesh (8n nodes), then the
+  // meshes and guesses of the four levels (n, 2n, 4n, 8n nodes), two extrapolations and the returned charge profile
+  const buffer = new Float64Array((WORK_ARRAYS * 8 + 48) * x.length);
+  system.workspace = buffer.subarray(0, WORK_ARRAYS * 8 * x.length);
+  const arena = makeArena(buffer.subarray(WORK_ARRAYS * 8 * x.length));
+  const guess = arena(x.length);
   for (let i = 0; i < x.length; i++) guess[i] = firstIntegral.guess(x[i]!);
   let coarse: MeshSolution;
   try {
@@ -169,8 +174,9 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
   for (;;) {
     // next level: bisect every cell, start Newton from the interpolated coarser solution, corrected by the
     // Richardson estimate of its discretisation error once two levels are known
-    const fineX = bisectMesh(x);
-    const fineGuess = interpolateToBisected(x, older === null ? coarse.u : extrapolateLevel(coarse.u, older));
+    const fineX = bisectMesh(x, arena(2 * x.length - 1));
+    const start = older === null ? coarse.u : extrapolateLevel(coarse.u, older, arena(x.length));
+    const fineGuess = interpolateToBisected(x, start, arena(2 * x.length - 1));
     fine = newtonOnMesh(system, uSurface, fineX, fineGuess, maxIterations);
     iterations += fine.iterations;
     levels++;
@@ -209,6 +215,9 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
   }
 
   const last = x.length - 1;
+  // the charge profile lives in the shared workspace: copy it out
+  const netCharge_m3 = arena(x.length);
+  netCharge_m3.set(fine.netCharge);
   // Gauss's law on the discrete system: the flux into the support at x = 0 balances the total charge
   const totalCharge_C = Q_ELEMENTARY_C * chargeSum;
   const interfaceSlope_per_m = (-beta * chargeSum) / geometry.interfaceArea_m2;
@@ -218,7 +227,7 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
   return {
     x_m: x,
     u: fine.u,
-    netCharge_m3: fine.netCharge.slice(),
+    netCharge_m3: netCharge_m3,
     totalCharge_C,
     interfaceSlope_per_m,
     iterations,
@@ -237,13 +246,26 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
 }
 
 /**
+ * Bump allocator for the arrays of one solve that live until its end (meshes, guesses): views of one buffer while
+ * it lasts (typed arrays are costly to create and collect one by one), then separate arrays.
+ */
+function makeArena(buffer: Float64Array): (n: number) => Float64Array {
+  const capacity = buffer.length;
+  let used = 0;
+  return (n) => {
+    if (used + n > capacity) return new Float64Array(n);
+    used += n;
+    return buffer.subarray(used - n, used);
+  };
+}
+
+/**
  * Richardson extrapolation of the profile: the scheme is second order, so u_k - u_(k-1) ~ (u_(k-1) - u_(k-2)) / 4
  * at the nodes the two meshes share (every other node of the finer); the correction is interpolated linearly to
  * the nodes in between. Gives Newton on the next level a guess within ~h^4 of its own discrete solution.
  */
-function extrapolateLevel(u: Float64Array, older: Float64Array): Float64Array {
+function extrapolateLevel(u: Float64Array, older: Float64Array, out: Float64Array): Float64Array {
   const n = u.length;
-  const out = new Float64Array(n);
   for (let i = 0; i < n; i += 2) out[i] = u[i]! + 0.25 * (u[i]! - older[i >> 1]!);
   for (let i = 1; i < n; i += 2) out[i] = u[i]! + 0.5 * (out[i - 1]! - u[i - 1]! + out[i + 1]! - u[i + 1]!);
   return out;
@@ -251,22 +273,18 @@ function extrapolateLevel(u: Float64Array, older: Float64Array): Float64Array {
 
 /**
  * Values of u on the bisected mesh: the coarse nodes, and at each midpoint the cubic through the four nearest
- * coarse nodes (Lagrange form; quadratic at the two end cells). Fourth-order accurate, so Newton on the finer
+ * coarse nodes (Lagrange form; one-sided at the two end cells). Fourth-order accurate, so Newton on the finer
  * mesh starts within ~h^4 of its solution and needs two or three steps.
  */
-function interpolateToBisected(x: Float64Array, u: Float64Array): Float64Array {
+function interpolateToBisected(x: Float64Array, u: Float64Array, out: Float64Array): Float64Array {
   const n = x.length;
-  const out = new Float64Array(2 * n - 1);
   for (let i = 0; i < n; i++) out[2 * i] = u[i]!;
   for (let i = 0; i < n - 1; i++) {
     const xm = 0.5 * (x[i]! + x[i + 1]!);
-    let first = Math.max(0, i - 1);
-    let lastIndex = Math.min(n - 1, i + 2);
-    if (lastIndex - first < 3 && n >= 3) {
-      // end cell: quadratic through three nodes
-      if (first === 0) lastIndex = Math.min(n - 1, 2);
-      else first = Math.max(0, n - 3);
-    }
+    // the cubic through the four nearest nodes, one-sided at the end cells (a quadratic there left errors of
+    // ~1e-2 kT next to a small particle, where the profile bends most)
+    const first = Math.max(0, Math.min(i - 1, n - 4));
+    const lastIndex = Math.min(n - 1, first + 3);
     let value = 0;
     for (let j = first; j <= lastIndex; j++) {
       let weight = 1;
@@ -416,14 +434,15 @@ interface MeshSolution {
 }
 
 /** views per node in one mesh solve's workspace */
-const WORK_ARRAYS = 21;
+const WORK_ARRAYS = 22;
 
 /**
- * The work arrays of a mesh solve, shared by every mesh of one problem: allocated once for the mesh the solve
- * expects to finish on (eight times the first; typed arrays are costly to create and collect), grown when needed.
+ * The work arrays of a mesh solve, shared by every mesh of one problem: allocated once by solveControlled for the
+ * mesh the solve expects to finish on (eight times the first; typed arrays are costly to create and collect),
+ * grown when a finer mesh is needed.
  */
 function acquireWorkspace(system: DiscreteSystem, n: number): Float64Array {
-  if (system.workspace.length < WORK_ARRAYS * n) system.workspace = new Float64Array(WORK_ARRAYS * (system.workspace.length === 0 ? 8 : 2) * n);
+  if (system.workspace.length < WORK_ARRAYS * n) system.workspace = new Float64Array(WORK_ARRAYS * 2 * n);
   return system.workspace;
 }
 
@@ -462,6 +481,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
   const step = take();
   const work = take();
   const work2 = take();
+  const inversePivot = take();
   const simplified = take();
   let trial: Float64Array = take();
   let trialResidual: Float64Array = take();
@@ -522,8 +542,10 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
     for (let i = 1; i < n; i++) residual[i] = -residual[i]!;
     lower[1] = 0;
     upper[last] = 0;
-    const ok = solveTridiagonal(n - 1, lower, diag, upper, residual, step, work, 1);
+    // factor the Jacobian once: the Newton step and every simplified step of the line search reuse it
+    const ok = factorTridiagonal(n - 1, lower, diag, upper, inversePivot, work, 1);
     if (!ok) throw new ConvergenceError('singular Jacobian', iterations);
+    solveFactoredTridiagonal(n - 1, lower, inversePivot, work, residual, step, 1);
     let maxStep = 0;
     for (let i = 1; i < n; i++) maxStep = Math.max(maxStep, Math.abs(step[i]!));
     if (!Number.isFinite(maxStep)) throw new ConvergenceError('non-finite Newton step', iterations);
@@ -553,9 +575,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
       trialNorm = evaluate(trial, trialResidual, trialLower, trialDiag, trialUpper, trialNodeCharge, trialNodeSlope);
       if (Number.isFinite(trialNorm)) {
         for (let i = 1; i < n; i++) work2[i] = -trialResidual[i]!;
-        lower[1] = 0;
-        upper[last] = 0;
-        solveTridiagonal(n - 1, lower, diag, upper, work2, simplified, work, 1);
+        solveFactoredTridiagonal(n - 1, lower, inversePivot, work, work2, simplified, 1);
         let simplifiedNorm = 0;
         for (let i = 1; i < n; i++) simplifiedNorm += simplified[i]! * simplified[i]!;
         simplifiedNorm = Math.sqrt(simplifiedNorm / (n - 1));
