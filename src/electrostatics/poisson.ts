@@ -89,8 +89,8 @@ const MAX_FINE_NODES = 40000;
 /** Newton stops after applying a step below this (times max(1, |u_s|)), in kT */
 const NEWTON_STOP = 1e-7;
 /** ... or after a step s whose predicted remaining error K s^2 is below this, kT */
-const PREDICTED_STOP = 1e-9;
-const LINEAR_STOP = 1e-4;
+const PREDICTED_STOP = 1e-8;
+const LINEAR_STOP = 3e-4;
 
 /**
  * Solve the nonlinear Poisson equation on the cross-section with a charge error controlled to a tolerance.
@@ -155,7 +155,16 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
   system.workspace = buffer.subarray(0, WORK_ARRAYS * 8 * x.length);
   const arena = makeArena(buffer.subarray(WORK_ARRAYS * 8 * x.length));
   const guess = arena(x.length);
-  for (let i = 0; i < x.length; i++) guess[i] = firstIntegral.guess(x[i]!);
+  // the planar profile, spread like the potential of a point charge, (a/(a+x)), near a curved interface of radius
+  // a = 2A/A' (exact for the hemisphere's Coulomb limit; a = infinity and the planar profile for a planar one)
+  const a0 = geometry.faceArea(0, 0);
+  const dx = 1e-3 * (x[1]! - x[0]!);
+  const slope = (geometry.faceArea(dx, dx) - a0) / dx;
+  const curvatureRadius = slope > 0 ? (2 * a0) / slope : Infinity;
+  for (let i = 0; i < x.length; i++) {
+    const spread = Number.isFinite(curvatureRadius) ? curvatureRadius / (curvatureRadius + x[i]!) : 1;
+    guess[i] = firstIntegral.guess(x[i]!) * spread;
+  }
   let coarse: MeshSolution;
   try {
     coarse = newtonOnMesh(system, uSurface, x, guess, maxIterations);
@@ -177,7 +186,7 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
     const fineX = bisectMesh(x, arena(2 * x.length - 1));
     const start = older === null ? coarse.u : extrapolateLevel(coarse.u, older, arena(x.length));
     const fineGuess = interpolateToBisected(x, start, arena(2 * x.length - 1));
-    fine = newtonOnMesh(system, uSurface, fineX, fineGuess, maxIterations);
+    fine = newtonOnMesh(system, uSurface, fineX, fineGuess, maxIterations, true);
     iterations += fine.iterations;
     levels++;
     x = fineX;
@@ -433,8 +442,31 @@ interface MeshSolution {
   iterations: number;
 }
 
+/**
+ * One Newton step of each midpoint's own equation with its two neighbours held (nonlinear Jacobi on the nodes a
+ * bisection added; the odd nodes couple only to even ones, so the steps are independent). The even nodes come
+ * from the coarser solution (Richardson-corrected), the midpoints only from interpolation: this brings them to
+ * the accuracy of their neighbours, so that one global Newton step usually suffices on the finer mesh.
+ */
+function relaxOddNodes(system: DiscreteSystem, u: Float64Array, faceCoefficient: Float64Array, betaVolume: Float64Array): void {
+  const { model, xiBulk, residue } = system;
+  const charge = new Float64Array(2);
+  for (let i = 1; i < u.length - 1; i += 2) {
+    model.netCharge(xiBulk - u[i]!, charge);
+    const right = faceCoefficient[i]!;
+    const left = faceCoefficient[i - 1]!;
+    const r = right * (u[i + 1]! - u[i]!) - left * (u[i]! - u[i - 1]!) - betaVolume[i]! * (charge[0]! - residue);
+    const d = -right - left + betaVolume[i]! * charge[1]!;
+    const next = u[i]! - r / d;
+    // stay between the neighbours (the profile is monotone between two nodes of the coarser mesh)
+    const lo = Math.min(u[i - 1]!, u[i + 1]!);
+    const hi = Math.max(u[i - 1]!, u[i + 1]!);
+    if (Number.isFinite(next)) u[i] = Math.min(hi, Math.max(lo, next));
+  }
+}
+
 /** views per node in one mesh solve's workspace */
-const WORK_ARRAYS = 22;
+const WORK_ARRAYS = 20;
 
 /**
  * The work arrays of a mesh solve, shared by every mesh of one problem: allocated once by solveControlled for the
@@ -450,7 +482,14 @@ function acquireWorkspace(system: DiscreteSystem, n: number): Float64Array {
  * Damped Newton for the finite-volume system on one mesh; u[0] is the Dirichlet value. Returns the profile in
  * `initial`; netCharge is a view of the shared workspace, valid until the next mesh solve.
  */
-function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array, initial: Float64Array, maxIterations: number): MeshSolution {
+function newtonOnMesh(
+  system: DiscreteSystem,
+  uSurface: number,
+  x: Float64Array,
+  initial: Float64Array,
+  maxIterations: number,
+  relaxMidpoints = false,
+): MeshSolution {
   const { model, xiBulk, beta, geometry, residue, farEnd } = system;
   const n = x.length;
   const endArea = geometry.faceArea(x[n - 1]!, x[n - 1]!);
@@ -471,13 +510,12 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
     volume[i + 1] += geometry.volume(mid, x[i + 1]!);
   }
   initial[0] = uSurface;
-  let lower: Float64Array = take();
+  // the off-diagonals of the Jacobian are the face coefficients, the same at every Newton step
+  const lower = take();
   let diag: Float64Array = take();
-  let upper: Float64Array = take();
+  const upper = take();
   let residual: Float64Array = take();
-  let trialLower: Float64Array = take();
   let trialDiag: Float64Array = take();
-  let trialUpper: Float64Array = take();
   const step = take();
   const work = take();
   const work2 = take();
@@ -499,9 +537,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
   const evaluate = (
     values: Float64Array,
     out: Float64Array,
-    outLower: Float64Array,
     outDiag: Float64Array,
-    outUpper: Float64Array,
     outCharge: Float64Array,
     outSlope: Float64Array,
   ): number => {
@@ -521,9 +557,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
       out[i] = r;
       outCharge[i] = charge[0]! - residue;
       outSlope[i] = -charge[1]!;
-      outLower[i] = left;
       outDiag[i] = d;
-      outUpper[i] = right;
       // Jacobi-scaled residual: the step a diagonal solve would take, in units of kT
       const scaled = r / d;
       norm += scaled * scaled;
@@ -531,17 +565,20 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
     return Math.sqrt(norm / (n - 1));
   };
 
+  if (relaxMidpoints) relaxOddNodes(system, initial, faceCoefficient, betaVolume);
   let iterations = 0;
   let u: Float64Array = initial;
-  evaluate(u, residual, lower, diag, upper, nodeCharge, nodeSlope);
+  for (let i = 1; i < n; i++) {
+    lower[i] = i > 1 ? faceCoefficient[i - 1]! : 0;
+    upper[i] = i < last ? faceCoefficient[i]! : 0;
+  }
+  evaluate(u, residual, diag, nodeCharge, nodeSlope);
   let converged = false;
   let previousFullStep = 0;
   const stepCap = Math.max(10, 0.25 * Math.abs(uSurface));
   while (iterations < maxIterations) {
     iterations++;
     for (let i = 1; i < n; i++) residual[i] = -residual[i]!;
-    lower[1] = 0;
-    upper[last] = 0;
     // factor the Jacobian once: the Newton step and every simplified step of the line search reuse it
     const ok = factorTridiagonal(n - 1, lower, diag, upper, inversePivot, work, 1);
     if (!ok) throw new ConvergenceError('singular Jacobian', iterations);
@@ -551,7 +588,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
     if (!Number.isFinite(maxStep)) throw new ConvergenceError('non-finite Newton step', iterations);
     // Newton converges quadratically: after applying a step s the remaining error is ~K s^2. K is measured on the
     // full steps of this solve (K = s_k / s_(k-1)^2, the largest seen kept); once K s^2 is below PREDICTED_STOP
-    // (and s itself below LINEAR_STOP, so that the linearised charge below is exact to ~s^2/2 < 5e-9), the
+    // (and s itself below LINEAR_STOP, so that the linearised charge below is exact to ~s^2/2 < 5e-8 of the local charge), the
     // error left is far below anything the charge tolerance can see. Without a measured K: stop only below 1e-7 kT.
     if (previousFullStep > 0 && previousFullStep < 1) system.contraction = Math.max(system.contraction, maxStep / (previousFullStep * previousFullStep));
     const predicted = system.contraction * maxStep * maxStep;
@@ -572,7 +609,7 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
     for (let halvings = 0; halvings < 50; halvings++) {
       for (let i = 1; i < n; i++) trial[i] = u[i]! + t * step[i]!;
       trial[0] = uSurface;
-      trialNorm = evaluate(trial, trialResidual, trialLower, trialDiag, trialUpper, trialNodeCharge, trialNodeSlope);
+      trialNorm = evaluate(trial, trialResidual, trialDiag, trialNodeCharge, trialNodeSlope);
       if (Number.isFinite(trialNorm)) {
         for (let i = 1; i < n; i++) work2[i] = -trialResidual[i]!;
         solveFactoredTridiagonal(n - 1, lower, inversePivot, work, work2, simplified, 1);
@@ -602,15 +639,9 @@ function newtonOnMesh(system: DiscreteSystem, uSurface: number, x: Float64Array,
     swap = residual;
     residual = trialResidual;
     trialResidual = swap;
-    swap = lower;
-    lower = trialLower;
-    trialLower = swap;
     swap = diag;
     diag = trialDiag;
     trialDiag = swap;
-    swap = upper;
-    upper = trialUpper;
-    trialUpper = swap;
     swap = nodeCharge;
     nodeCharge = trialNodeCharge;
     trialNodeCharge = swap;
