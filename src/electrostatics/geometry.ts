@@ -95,55 +95,53 @@ export function crossSectionFromFunction(kind: string, area: (x_m: number) => nu
 
 /**
  * One particle's cell in an array of areal density N: the support inside the cylinder of radius R = 1/sqrt(pi N)
- * around the particle (the circle with the cell's area), cut into spherical shells of radius rho = a + x about
- * the particle's centre. A shell's area inside the cell is the full hemisphere 2 pi rho^2 while rho <= R and the
- * spherical zone 2 pi rho (rho - sqrt(rho^2 - R^2)) beyond (Archimedes' zone area, height rho - sqrt(rho^2 - R^2)),
- * which tends to the cell's footprint pi R^2 = 1/N; the volumes are exact for the cell. The potential is taken to
- * depend on rho alone: exact for the isolated hemisphere (layer << R) and for the planar layer shared among
- * particles (layer >> R, where the zones flatten to the footprint), and it keeps the hemisphere's extra area near
- * densely packed particles (more charge than the planar share, issue 10 item 4). Replaced the smooth minimum
- * [(2 pi r^2)^-4 + N^4]^(-1/4), which was 4-11% below the 2D axisymmetric cell reference where the layer depth is
- * comparable to the spacing; checked against that reference in test/array2d.test.ts.
+ * around the particle (the circle with the cell's area), in shells of radius rho = a + x about the particle's
+ * centre, the potential taken to depend on rho alone.
+ *  - Volumes are the cell's own: a shell inside the cylinder is the full hemisphere while rho <= R and the
+ *    spherical zone of height rho - sqrt(rho^2 - R^2) beyond (Archimedes), so the volume inside rho is
+ *    (2 pi / 3)(rho^3 - (rho^2 - R^2)^(3/2)), which grows like pi R^2 rho deep down; it keeps the support beside
+ *    the particle (at touching coverage the true charge exceeds the planar share, issue 10 item 4).
+ *  - The flux area is the hemisphere's 2 pi rho^2 near the particle joined to the footprint pi R^2 = 1/N:
+ *    A = A_h / (1 + (A_h N)^4)^(1/4), the smooth minimum this geometry used before issue 10 item 4 (exponent 4,
+ *    chosen then against the 2D reference, not refitted). The zone area itself (up to 2 pi R^2 at rho = R) would
+ *    put too little of the potential drop near the particle: 3-13% too much charge where the layer depth is
+ *    comparable to the spacing.
+ * Checked against the 2D axisymmetric cell reference (test/reference/axisymmetric2d.ts) in test/array2d.test.ts:
+ * within 3% over 1e9-1e13 cm^-2, diameters 1-10 nm and layer depths 0.1-10x the spacing (the former flux tube,
+ * with planar slab volumes, was up to 11% below).
  */
 export function particleArray(radius_m: number, particleDensity_m2: number): CrossSection {
   const a = radius_m;
-  const R = 1 / Math.sqrt(Math.PI * particleDensity_m2);
-  const R2 = R * R;
-  // area of the shell of radius rho inside the cell
-  const area = (rho: number): number => (rho <= R ? 2 * Math.PI * rho * rho : (2 * Math.PI * rho * R2) / (rho + Math.sqrt(rho * rho - R2)));
-  // cell volume inside the sphere of radius rho: (2 pi / 3)(rho^3 - (rho^2 - R^2)^(3/2)) (the zone's complement removed)
+  const n = particleDensity_m2;
+  const R2 = 1 / (Math.PI * n);
+  // cell volume inside the sphere of radius rho
   const enclosed = (rho: number): number => {
-    const outside = rho > R ? Math.pow(rho * rho - R2, 1.5) : 0;
+    const outside = rho * rho > R2 ? Math.pow(rho * rho - R2, 1.5) : 0;
     return ((2 * Math.PI) / 3) * (rho * rho * rho - outside);
   };
-  // integral of d rho / A(rho): 1/(2 pi rho) below R; (rho + sqrt(rho^2 - R^2) - R acos(R/rho)) / (2 pi R^2) above
-  const resistance = (rho: number): number =>
-    rho <= R ? -1 / (2 * Math.PI * rho) : -1 / (2 * Math.PI * R) + (rho - R + Math.sqrt(rho * rho - R2) - R * Math.acos(R / rho)) / (2 * Math.PI * R2);
+  // flux area; m = 4 written out: A = A_h / (1 + (A_h N)^4)^(1/4), no pow() in the inner loops
+  const fluxArea = (rho: number): number => {
+    const hemisphereArea = 2 * Math.PI * rho * rho;
+    const ratio = hemisphereArea * n;
+    const square = ratio * ratio;
+    return hemisphereArea / Math.sqrt(Math.sqrt(1 + square * square));
+  };
   const volume = (xa: number, xb: number): number => {
     const ra = a + xa;
     const rb = a + xb;
-    // thin shells below R in factored form (no cancellation); elsewhere the difference of the closed form
-    if (rb <= R) return ((2 * Math.PI) / 3) * (rb - ra) * (rb * rb + ra * rb + ra * ra);
-    const v = enclosed(rb) - enclosed(ra);
-    return v > 0 ? v : 0.5 * (area(ra) + area(rb)) * (rb - ra);
+    // shells inside the cylinder in factored form (no cancellation for thin shells); beyond, the closed form
+    if (rb * rb <= R2) return ((2 * Math.PI) / 3) * (rb - ra) * (rb * rb + ra * rb + ra * ra);
+    return Math.max(0, enclosed(rb) - enclosed(ra));
   };
   return {
     kind: 'array',
     interfaceArea_m2: 2 * Math.PI * a * a,
-    particleFootprint_m2: 1 / particleDensity_m2,
-    // the area that makes the discrete flux exact for the potential of a constant flux: (xb - xa) / int d rho / A
-    faceArea(xa, xb) {
-      const ra = a + xa;
-      const rb = a + xb;
-      if (rb <= R) return 2 * Math.PI * ra * rb;
-      const r = resistance(rb) - resistance(ra);
-      // cancellation for very thin cells far out, where A hardly varies: the mean area
-      return r > 1e-9 * ((rb - ra) / area(rb)) ? (rb - ra) / r : Math.sqrt(area(ra) * area(rb));
-    },
+    // geometric mean: second order, and the hemisphere's exact 2 pi r_a r_b where the footprint does not bite
+    faceArea: (xa, xb) => Math.sqrt(fluxArea(a + xa) * fluxArea(a + xb)),
     volume,
     depthHoldingVolume(v) {
       let low = 0;
-      let high = Math.max(a, R);
+      let high = Math.max(a, Math.sqrt(R2));
       while (volume(0, high) < v && high < 1) high *= 2;
       for (let i = 0; i < 80; i++) {
         const mid = 0.5 * (low + high);
