@@ -61,8 +61,9 @@ function deviation(density_cm2: number, diameter_nm: number, ratio: number): num
   return tube.totalCharge_C / cell.charge_C - 1;
 }
 
-function worstOver(densities: number[], diameters: number[], ratios: number[]): { worst: number; rows: string[] } {
+function worstOver(densities: number[], diameters: number[], ratios: number[]): { worst: number; rows: string[]; worstBelow: (density: number) => number } {
   const rows: string[] = [];
+  const points: { density: number; deviation: number }[] = [];
   let worst = 0;
   for (const density of densities) {
     for (const diameter of diameters) {
@@ -70,11 +71,13 @@ function worstOver(densities: number[], diameters: number[], ratios: number[]): 
         const d = deviation(density, diameter, ratio);
         if (d === null) continue;
         worst = Math.max(worst, Math.abs(d));
+        points.push({ density, deviation: Math.abs(d) });
         rows.push(`${density.toExponential(0)} cm^-2, d ${diameter} nm, W/s ${ratio}: ${(100 * d).toFixed(2)}%`);
       }
     }
   }
-  return { worst, rows };
+  const worstBelow = (limit: number): number => Math.max(0, ...points.filter((p) => p.density < limit).map((p) => p.deviation));
+  return { worst, rows, worstBelow };
 }
 
 // Issue 10 item 4: within 3% over densities 1e9-1e14 cm^-2, diameters 1-10 nm, layer depths 0.1-10x the spacing.
@@ -93,11 +96,10 @@ describe('particle array cell against the 2D cell (issue 10 item 4)', () => {
   // 1.2 a) the cell is 4.5% low: a shell that still lies wholly inside the cell keeps the hemisphere's area, while
   // the smooth minimum already narrows it toward the footprint. The bound below records that, it is not the target.
   it('held-out grid (3e9-3e12 cm^-2 x 1.5, 3, 7 nm x layer 0.3, 3x the spacing): within 5%, 3% away from touching', () => {
-    const { worst, rows } = worstOver([3e9, 3e10, 3e11, 3e12], [1.5, 3, 7], [0.3, 3]);
+    const { worst, rows, worstBelow } = worstOver([3e9, 3e10, 3e11, 3e12], [1.5, 3, 7], [0.3, 3]);
     console.log(`held-out grid, max |deviation| ${(100 * worst).toFixed(2)}%\n${rows.join('\n')}`);
     expect(rows.length).toBeGreaterThan(15);
     expect(worst).toBeLessThan(0.05);
-    const away = worstOver([3e9, 3e10, 3e11], [1.5, 3, 7], [0.3, 3]);
-    expect(away.worst).toBeLessThan(0.03);
+    expect(worstBelow(1e12)).toBeLessThan(0.03);
   }, 900_000);
 });
