@@ -473,7 +473,7 @@ function relaxOddNodes(system: DiscreteSystem, u: Float64Array, faceCoefficient:
 }
 
 /** views per node in one mesh solve's workspace */
-const WORK_ARRAYS = 20;
+const WORK_ARRAYS = 16;
 
 /**
  * The work arrays of a mesh solve, shared by every mesh of one problem: allocated once by solveControlled for the
@@ -520,25 +520,24 @@ function newtonOnMesh(
   // the off-diagonals of the Jacobian are the face coefficients, the same at every Newton step
   const lower = take();
   let diag: Float64Array = take();
-  const upper = take();
   let residual: Float64Array = take();
   let trialDiag: Float64Array = take();
   const step = take();
   const work = take();
-  const work2 = take();
   const inversePivot = take();
   const simplified = take();
   let trial: Float64Array = take();
   let trialResidual: Float64Array = take();
   const charge = new Float64Array(2);
-  const betaVolume = take();
   // N - N_bulk and dN/du at the nodes from the last residual evaluation: the converged charge comes from these plus
   // the last (tiny) Newton step, to first order, instead of one more sweep of the charge model
   let nodeCharge: Float64Array = take();
   let nodeSlope: Float64Array = take();
   let trialNodeCharge: Float64Array = take();
   let trialNodeSlope: Float64Array = take();
-  for (let i = 0; i < n; i++) betaVolume[i] = beta * volume[i]!;
+  // beta V_i in place of V_i (the charge sums divide by beta once)
+  for (let i = 0; i < n; i++) volume[i] = beta * volume[i]!;
+  const betaVolume = volume;
 
   /** residual R_i = flux out - flux in - beta V_i N_i (and the Jacobian when asked); returns the scaled norm */
   const evaluate = (
@@ -577,7 +576,6 @@ function newtonOnMesh(
   let u: Float64Array = initial;
   for (let i = 1; i < n; i++) {
     lower[i] = i > 1 ? faceCoefficient[i - 1]! : 0;
-    upper[i] = i < last ? faceCoefficient[i]! : 0;
   }
   evaluate(u, residual, diag, nodeCharge, nodeSlope);
   let converged = false;
@@ -587,7 +585,8 @@ function newtonOnMesh(
     iterations++;
     for (let i = 1; i < n; i++) residual[i] = -residual[i]!;
     // factor the Jacobian once: the Newton step and every simplified step of the line search reuse it
-    const ok = factorTridiagonal(n - 1, lower, diag, upper, inversePivot, work, 1);
+    // (upper[i] = faceCoefficient[i]; the factorisation never reads upper at the last node)
+    const ok = factorTridiagonal(n - 1, lower, diag, faceCoefficient, inversePivot, work, 1);
     if (!ok) throw new ConvergenceError('singular Jacobian', iterations);
     solveFactoredTridiagonal(n - 1, lower, inversePivot, work, residual, step, 1);
     let maxStep = 0;
@@ -618,8 +617,8 @@ function newtonOnMesh(
       trial[0] = uSurface;
       trialNorm = evaluate(trial, trialResidual, trialDiag, trialNodeCharge, trialNodeSlope);
       if (Number.isFinite(trialNorm)) {
-        for (let i = 1; i < n; i++) work2[i] = -trialResidual[i]!;
-        solveFactoredTridiagonal(n - 1, lower, inversePivot, work, work2, simplified, 1);
+        for (let i = 1; i < n; i++) simplified[i] = -trialResidual[i]!;
+        solveFactoredTridiagonal(n - 1, lower, inversePivot, work, simplified, simplified, 1);
         let simplifiedNorm = 0;
         for (let i = 1; i < n; i++) simplifiedNorm += simplified[i]! * simplified[i]!;
         simplifiedNorm = Math.sqrt(simplifiedNorm / (n - 1));
@@ -658,15 +657,17 @@ function newtonOnMesh(
   }
   if (!converged) throw new ConvergenceError(`no convergence within ${maxIterations} Newton iterations`, iterations);
 
-  const netCharge = take();
+  // the trial arrays are free once Newton has converged
+  const netCharge = trialNodeCharge;
   model.netCharge(xiBulk - u[0]!, charge);
   netCharge[0] = charge[0]! - residue;
-  let chargeSum = netCharge[0]! * volume[0]!;
+  let chargeSum = netCharge[0]! * betaVolume[0]!;
   for (let i = 1; i < n; i++) {
-    // N(u + du) = N(u) + dN/du du, exact to O(du^2) ~ 1e-14 after the last step (< 1e-7 kT)
+    // N(u + du) = N(u) + dN/du du, exact to O(du^2) (the last step is below LINEAR_STOP, see the stop rule)
     netCharge[i] = nodeCharge[i]! + nodeSlope[i]! * step[i]!;
-    chargeSum += netCharge[i]! * volume[i]!;
+    chargeSum += netCharge[i]! * betaVolume[i]!;
   }
+  chargeSum /= beta;
   // the charge beyond the far end, A g(u_L) / beta (Gauss's law on the screened tail), belongs to the support too
   if (farEnd !== null) {
     farEnd.flux(u[last]!, x[last]!, endFlux);
