@@ -101,7 +101,8 @@ const LINEAR_STOP = 3e-4;
  * linearised hemisphere tail).
  * Units: SI inside (m, per m^3); u, xi in kT.  Ranges: |u_s| up to ~1e4 kT; temperature 1-5000 K.
  * Method: vertex-centred finite volumes, damped Newton (tridiagonal Jacobian), on a graded mesh from the planar
- * first integral that is then bisected: each level is solved from the previous one, the charge is
+ * first integral that is then bisected: each level is solved from the previous one (interpolated, corrected by the
+ * Richardson estimate of its discretisation error, midpoints relaxed), the charge is
  * Richardson-extrapolated from the last two levels (second-order scheme), and bisection continues until
  * |Q_fine - Q_coarse| / 3 <= tolerance |Q| or the node cap. The same strategy as adaptive BVP codes that bound
  * the residual of the continuous solution (cf. Kierzenka & Shampine, ACM TOMS 27, 299 (2001), the method of
