@@ -42,6 +42,19 @@ export function hemisphere(radius_m: number): CrossSection {
   };
 }
 
+/** Depth W with volume(0, W) = v for a monotone volume, by bisection from a first guess of the bracket, m. */
+function depthByBisection(volume: (xa: number, xb: number) => number, v: number, firstHigh: number): number {
+  let high = firstHigh;
+  while (volume(0, high) < v && high < 1) high *= 2;
+  let low = 0;
+  for (let i = 0; i < 80; i++) {
+    const mid = 0.5 * (low + high);
+    if (volume(0, mid) < v) low = mid;
+    else high = mid;
+  }
+  return 0.5 * (low + high);
+}
+
 /**
  * Generic hook: any smooth positive A(x); integrals by Gauss–Legendre (3 points per segment, exact for quintics).
  * depthHoldingVolume is found by bisection on the monotone volume.
@@ -79,17 +92,7 @@ export function crossSectionFromFunction(kind: string, area: (x_m: number) => nu
     // the geometric mean is second-order accurate and reduces to the hemisphere's exact choice for A ~ r^2
     faceArea: (xa, xb) => Math.sqrt(area(xa) * area(xb)),
     volume,
-    depthHoldingVolume(v) {
-      let high = 1e-9;
-      while (volume(0, high) < v && high < 1) high *= 2;
-      let low = 0;
-      for (let i = 0; i < 60; i++) {
-        const mid = 0.5 * (low + high);
-        if (volume(0, mid) < v) low = mid;
-        else high = mid;
-      }
-      return 0.5 * (low + high);
-    },
+    depthHoldingVolume: (v) => depthByBisection(volume, v, 1e-9),
   };
 }
 
@@ -140,16 +143,6 @@ export function particleArray(radius_m: number, particleDensity_m2: number): Cro
     // geometric mean: second order, and the hemisphere's exact 2 pi r_a r_b where the footprint does not bite
     faceArea: (xa, xb) => Math.sqrt(fluxArea(a + xa) * fluxArea(a + xb)),
     volume,
-    depthHoldingVolume(v) {
-      let low = 0;
-      let high = Math.max(a, Math.sqrt(R2));
-      while (volume(0, high) < v && high < 1) high *= 2;
-      for (let i = 0; i < 80; i++) {
-        const mid = 0.5 * (low + high);
-        if (volume(0, mid) < v) low = mid;
-        else high = mid;
-      }
-      return 0.5 * (low + high);
-    },
+    depthHoldingVolume: (v) => depthByBisection(volume, v, Math.max(a, Math.sqrt(R2))),
   };
 }
