@@ -235,7 +235,9 @@ export function fermiDiracPair(eta: number, out: Float64Array, offset: number): 
     let value = x;
     let slope = x;
     let power = x;
-    const threshold = 1e-17 * x;
+    // terms below 1e-13 of the first change neither value nor slope beyond the 1e-8 this module promises (the
+    // next term is smaller still: alternating, decreasing), and this loop is the solver's innermost
+    const threshold = 1e-13 * x;
     for (let k = 2; k <= SERIES_TERMS; k++) {
       power *= x;
       if (power < threshold) break;

@@ -49,15 +49,13 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
   // at least two points per kT of bending, so sharp ionisation fronts (a few kT wide in u) are seen
   const uniformPoints = Math.min(4000, Math.max(UNIFORM_POINTS, Math.ceil(2 * magnitude)));
   const firstUniform = 1 / uniformPoints;
-  for (let k = 0; k < GEOMETRIC_POINTS; k++) {
-    fractions.push(SMALLEST_FRACTION * Math.pow(firstUniform / SMALLEST_FRACTION, k / GEOMETRIC_POINTS));
-  }
+  const growth = Math.pow(firstUniform / SMALLEST_FRACTION, 1 / GEOMETRIC_POINTS);
+  for (let k = 0, f = SMALLEST_FRACTION; k < GEOMETRIC_POINTS; k++, f *= growth) fractions.push(f);
   for (let k = 1; k <= uniformPoints; k++) fractions.push(k / uniformPoints);
   const m = fractions.length;
-  // one allocation for all eight tables (typed arrays are costly to create one by one)
-  const tables = new Float64Array(8 * m);
-  let slot = 0;
-  const take = (): Float64Array => tables.subarray(m * slot++, m * slot);
+  // plain arrays: a typed array larger than a few doubles costs an off-heap allocation and a finaliser for the
+  // garbage collector, which made up half the time of this function
+  const take = (): number[] => new Array<number>(m).fill(0);
   const uValues = take();
   const gValues = take();
   const debyeLengths = take();
@@ -105,7 +103,7 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
    * surface, depth[0] = infinity), so the bracket depth[k] >= x >= depth[k+1] is found by bisection.
    * Returns undefined beyond the deepest finite table point.
    */
-  const atDepth = (values: Float64Array, x: number): number | undefined => {
+  const atDepth = (values: number[], x: number): number | undefined => {
     if (!(depth[1]! >= x)) return undefined;
     let deep = 1; // depth[deep] >= x
     let shallow = m - 1; // depth[shallow] <= x
@@ -266,9 +264,8 @@ function generate(
   return nodes;
 }
 
-/** Insert the midpoint of every cell: the next member of the mesh family. */
-export function bisectMesh(x: Float64Array): Float64Array {
-  const out = new Float64Array(2 * x.length - 1);
+/** Insert the midpoint of every cell: the next member of the mesh family (written to `out` when given). */
+export function bisectMesh(x: Float64Array, out: Float64Array = new Float64Array(2 * x.length - 1)): Float64Array {
   for (let i = 0; i < x.length - 1; i++) {
     out[2 * i] = x[i]!;
     out[2 * i + 1] = 0.5 * (x[i]! + x[i + 1]!);

@@ -30,3 +30,53 @@ export function solveTridiagonal(
   for (let i = end - 2; i >= first; i--) out[i] = out[i]! - work[i + 1]! * out[i + 1]!;
   return true;
 }
+
+/**
+ * LU factorisation of the same tridiagonal matrix for several right-hand sides (Thomas algorithm split in two):
+ * writes the reciprocal pivots to `inversePivot` and the multipliers upper[i-1]/pivot[i-1] to `ratio`, at the
+ * indices offset..offset+n-1. Returns false when a pivot vanishes or is not finite.
+ */
+export function factorTridiagonal(
+  n: number,
+  lower: Float64Array,
+  diag: Float64Array,
+  upper: Float64Array,
+  inversePivot: Float64Array,
+  ratio: Float64Array,
+  offset = 0,
+): boolean {
+  const end = offset + n;
+  let pivot = diag[offset]!;
+  if (pivot === 0 || !Number.isFinite(pivot)) return false;
+  let inverse = 1 / pivot;
+  inversePivot[offset] = inverse;
+  for (let i = offset + 1; i < end; i++) {
+    const r = upper[i - 1]! * inverse;
+    ratio[i] = r;
+    pivot = diag[i]! - lower[i]! * r;
+    if (pivot === 0 || !Number.isFinite(pivot)) return false;
+    inverse = 1 / pivot;
+    inversePivot[i] = inverse;
+  }
+  return true;
+}
+
+/** Solve with a factorisation from factorTridiagonal (same n, lower and offset); rhs and out may be the same array. */
+export function solveFactoredTridiagonal(
+  n: number,
+  lower: Float64Array,
+  inversePivot: Float64Array,
+  ratio: Float64Array,
+  rhs: Float64Array,
+  out: Float64Array,
+  offset = 0,
+): void {
+  const end = offset + n;
+  let previous = rhs[offset]! * inversePivot[offset]!;
+  out[offset] = previous;
+  for (let i = offset + 1; i < end; i++) {
+    previous = (rhs[i]! - lower[i]! * previous) * inversePivot[i]!;
+    out[i] = previous;
+  }
+  for (let i = end - 2; i >= offset; i--) out[i] = out[i]! - ratio[i + 1]! * out[i + 1]!;
+}

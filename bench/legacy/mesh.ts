@@ -1,10 +1,10 @@
-// FROZEN COPY of src/electrostatics/mesh.ts at commit 713f1f8 (before issue 10 error control), kept only as the
-// benchmark's in-process reference: `npm run bench` reports today's solver against it. Not exported, not tested.
+// FROZEN COPY of src/electrostatics/mesh.ts at commit 713f1f8 (before issue 10 error control), kept outside src/ only as
+// the benchmark's in-process reference (bench/tsconfig.json compiles it for `npm run bench`). Not exported, not tested.
 // Length scales, initial guess and mesh for the Poisson solve, all from the planar first integral
 //   (du/dx)^2 = 2 beta G(u),  G(u) = integral_0^u N(xi_bulk - u') du'   (Sze & Ng ch. 4, surface space charge),
 // which is exact for a planar semi-infinite support and a good guide for every other geometry.
-import type { ChargeModel } from '../../bulk/equilibrium.js';
-import type { CrossSection } from '../../electrostatics/geometry.js';
+import type { ChargeModel } from '../../src/bulk/equilibrium.js';
+import type { CrossSection } from '../../src/electrostatics/geometry.js';
 
 export interface PlanarFirstIntegral {
   /** |u_s| */

@@ -1,14 +1,14 @@
-// FROZEN COPY of src/electrostatics/poisson.ts at commit 713f1f8 (before issue 10 error control), kept only as the
-// benchmark's in-process reference: `npm run bench` reports today's solver against it. Not exported, not tested.
+// FROZEN COPY of src/electrostatics/poisson.ts at commit 713f1f8 (before issue 10 error control), kept outside src/ only as
+// the benchmark's in-process reference (bench/tsconfig.json compiles it for `npm run bench`). Not exported, not tested.
 // Nonlinear Poisson equation for the band bending in the support, on a 1D cross-section A(x):
 //   (1/A) d/dx (A du/dx) = beta * N(xi_bulk - u),   beta = q^2 / (eps eps0 k T),
 // with u = (E_C(x) - E_C,bulk)/kT (positive = bands bend up), N = (p - n + N_D^+ - N_A^-) per m^3.
 // Vertex-centred finite volumes on a graded mesh; Newton with an O(N) tridiagonal Jacobian and backtracking.
-import { EPS0_F_PER_M, K_BOLTZMANN_J_PER_K, Q_ELEMENTARY_C } from '../../constants.js';
-import { ConvergenceError } from '../../errors.js';
-import type { ChargeModel } from '../../bulk/equilibrium.js';
-import type { CrossSection } from '../../electrostatics/geometry.js';
-import { solveTridiagonal } from '../../electrostatics/tridiagonal.js';
+import { EPS0_F_PER_M, K_BOLTZMANN_J_PER_K, Q_ELEMENTARY_C } from '../../src/constants.js';
+import { ConvergenceError } from '../../src/errors.js';
+import type { ChargeModel } from '../../src/bulk/equilibrium.js';
+import type { CrossSection } from '../../src/electrostatics/geometry.js';
+import { solveTridiagonal } from '../../src/electrostatics/tridiagonal.js';
 import { bisectMesh, buildMesh, planarFirstIntegral, type PlanarFirstIntegral } from './mesh.js';
 
 export interface PoissonProblem {
