@@ -3,7 +3,7 @@
 // in order (a later example may use what an earlier one wrote, e.g. study shards before the merge), in a fresh
 // temporary folder per command or README section that links to the package's examples/ folder, so files
 // they write stay out of the package.
-import { spawnSync } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, symlinkSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -32,6 +32,52 @@ function run(args: string[], cwd: string): { code: number | null; stdout: string
   const r = spawnSync(process.execPath, [BIN, ...args], { cwd, encoding: 'utf8', env, timeout: 300_000, maxBuffer: 64 * 1024 * 1024 });
   if (r.error) throw r.error;
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+/**
+ * `bandbend explore` without --out serves until stopped: start it, wait for the address it prints, fetch the page
+ * (HTTP 200 with the page's HTML), then stop it with SIGINT. PATH is emptied so that no system browser is opened.
+ */
+async function runServing(args: string[], cwd: string): Promise<{ status: number; body: string; code: number | null; stderr: string }> {
+  const child = spawn(process.execPath, [BIN, ...args], { cwd, env: { ...process.env, NO_COLOR: '1', PATH: '' }, stdio: ['ignore', 'pipe', 'pipe'] });
+  let stdout = '';
+  let stderr = '';
+  child.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
+  const exited = new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code)));
+  const url = await new Promise<string>((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error(`no address printed: ${stderr}`)), 60_000);
+    child.stdout.on('data', (d: Buffer) => {
+      stdout += d.toString();
+      const m = /http:\/\/127\.0\.0\.1:\d+\//.exec(stdout);
+      if (m) {
+        clearTimeout(timer);
+        resolve(m[0]);
+      }
+    });
+    child.on('exit', () => reject(new Error(`exited before serving: ${stderr}`)));
+  });
+  const response = await fetch(url);
+  const body = await response.text();
+  child.kill('SIGINT');
+  const code = await exited;
+  return { status: response.status, body, code, stderr };
+}
+
+/** Whether an example line serves until stopped (explore without --out). */
+function serves(args: string[]): boolean {
+  return args[0] === 'explore' && !args.includes('--out') && !args.includes('--help');
+}
+
+/** Run one example: exit 0, or for a serving example the page answered. */
+async function runExample(args: string[], cwd: string, line: string): Promise<void> {
+  if (serves(args)) {
+    const r = await runServing(args, cwd);
+    expect(r.status, `${line}\n${r.stderr}`).toBe(200);
+    expect(r.body, line).toContain('<html');
+    return;
+  }
+  const r = run(args, cwd);
+  expect(r.code, `${line}\n${r.stderr}`).toBe(0);
 }
 
 /** Shell words of one command line: double and single quotes group, a trailing "# comment" is dropped. */
@@ -83,6 +129,7 @@ const COMMANDS: string[][] = [
   ['materials', 'list'],
   ['materials', 'show'],
   ['validate'],
+  ['explore'],
 ];
 
 describe('every --help example runs', () => {
@@ -96,10 +143,7 @@ describe('every --help example runs', () => {
     describe(`bandbend ${command.join(' ') || '(top level)'}`, () => {
       const cwd = workFolder();
       for (const line of examples) {
-        it(line, () => {
-          const r = run(shellWords(line).slice(1), cwd);
-          expect(r.code, `${line}\n${r.stderr}`).toBe(0);
-        });
+        it(line, () => runExample(shellWords(line).slice(1), cwd, line));
       }
     });
   }
@@ -130,8 +174,7 @@ describe('every README command line runs', () => {
       for (const line of commands) {
         it(line, () => {
           const words = shellWords(line);
-          const r = run(words.slice(words[0] === 'npx' ? 2 : 1), cwd);
-          expect(r.code, `${line}\n${r.stderr}`).toBe(0);
+          return runExample(words.slice(words[0] === 'npx' ? 2 : 1), cwd, line);
         });
       }
     });

@@ -4,9 +4,9 @@ import type { Command } from 'commander';
 
 const EXAMPLES = `
 Examples:
-  bandbend explore                      serve on a free port and open the system browser
-  bandbend explore --port 8400 --no-open
-  bandbend explore --out site/explorer  copy the page for a web host (any static file server)`;
+  bandbend explore                         # serve on a free port and open the system browser
+  bandbend explore --port 8400 --no-open   # a fixed port; print the address only
+  bandbend explore --out site/explorer     # copy the page for a web host (any static file server)`;
 
 async function runExplore(opts: Record<string, unknown>): Promise<void> {
   const server = await import('./exploreServer.js');
