@@ -546,8 +546,9 @@ describe('third survey: coverage rules', () => {
     const literature = verifiedShare(allRecords, (pv) => pv.source.startsWith('bandbend-assumed'));
     // 0.488 before the third survey (117 of 240); the survey's target of 0.75 of all values was not reached
     // (0.66 of all values, 0.77 of the values that claim a literature source; materials/README.md);
-    // issue 12 data pass: 0.687 of all values (248 of 361), 0.795 of those claiming a literature source
-    expect(all).toBeGreaterThan(0.68);
+    // issue 12 data pass: 0.683 of all values (248 of 363), 0.790 of those claiming a literature source;
+    // issue 12 item 6: 0.702 (255 of 363), 0.812 of those claiming a literature source (materials/README.md)
+    expect(all).toBeGreaterThan(0.7);
     expect(literature).toBeGreaterThanOrEqual(0.75);
   });
 
