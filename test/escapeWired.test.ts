@@ -1,17 +1,15 @@
 // User text reaches the terminal and Markdown only through src/output/escape.ts (bandbend issue 13, item 6):
 // end-to-end checks that the command line and the report writer use it. The escaping functions themselves are
 // checked in test/hostile.test.ts against a CommonMark renderer (markdown-it 15, the reference here too).
-import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import MarkdownIt from 'markdown-it';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { runBandbend } from './helpers.js';
 import { solveContact } from '../src/contact.js';
 import { contactReportMarkdown } from '../src/output/report.js';
 
-const ROOT = fileURLToPath(new URL('..', import.meta.url));
 let work: string;
 let materialsFile: string;
 
@@ -50,13 +48,7 @@ afterAll(() => {
   rmSync(work, { recursive: true, force: true });
 });
 
-function bandbend(args: string[]): { code: number | null; stdout: string; stderr: string } {
-  const env: NodeJS.ProcessEnv = { ...process.env, NO_COLOR: '1' };
-  delete env['BANDBEND_DEBUG'];
-  const r = spawnSync(process.execPath, ['bin/bandbend.js', ...args], { cwd: ROOT, encoding: 'utf8', env, timeout: 120_000 });
-  if (r.error) throw r.error;
-  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
-}
+const bandbend = runBandbend; // test/helpers.ts: the built CLI from the package root
 
 // C0 (except line feed), DEL, C1 and bidirectional controls
 // eslint-disable-next-line no-control-regex

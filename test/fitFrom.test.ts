@@ -2,12 +2,12 @@
 // Reference: the generating parameters of examples/mott-schottky-sample.csv (examples/README.md: N_D = 2e18 cm^-3,
 // eps = 31, V_fb = -0.42 V vs Ag/AgCl, 0.2 % deterministic noise): a contact fed with the fit must use that
 // donor density and permittivity. Conflicting explicit flags exit 2 with one line.
-import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { runBandbend } from './helpers.js';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
 const SAMPLE = 'examples/mott-schottky-sample.csv';
@@ -21,13 +21,7 @@ afterAll(() => {
   rmSync(work, { recursive: true, force: true });
 });
 
-function bandbend(args: string[]): { code: number | null; stdout: string; stderr: string } {
-  const env: NodeJS.ProcessEnv = { ...process.env, NO_COLOR: '1' };
-  delete env['BANDBEND_DEBUG'];
-  const r = spawnSync(process.execPath, ['bin/bandbend.js', ...args], { cwd: ROOT, encoding: 'utf8', env, timeout: 120_000 });
-  if (r.error) throw r.error;
-  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
-}
+const bandbend = runBandbend; // test/helpers.ts: the built CLI from the package root
 
 function json<T>(args: string[]): T {
   const r = bandbend(args);

@@ -1,4 +1,6 @@
 // Shared test helpers: independent reference computations written for the tests (not the project's code paths).
+import { spawnSync } from 'node:child_process';
+import { fileURLToPath } from 'node:url';
 import { makeChargeModel, solveBulkNeutrality, type SupportElectronic } from '../src/bulk/equilibrium.js';
 import type { ContactOptions } from '../src/inputs/parameters.js';
 import type { MaterialsLibrary } from '../src/materials/types.js';
@@ -160,4 +162,17 @@ export function warningFacts(overrides: Partial<WarningFacts> = {}): WarningFact
     historyRelaxationLog10_s: null,
     ...overrides,
   };
+}
+
+/**
+ * Run the built CLI (bin/bandbend.js) from the package root, without colour and without the debug stack traces:
+ * exit code, stdout and stderr (at most 120 s).
+ */
+export function runBandbend(args: string[]): { code: number | null; stdout: string; stderr: string } {
+  const env: NodeJS.ProcessEnv = { ...process.env, NO_COLOR: '1' };
+  delete env['BANDBEND_DEBUG'];
+  const root = fileURLToPath(new URL('..', import.meta.url));
+  const r = spawnSync(process.execPath, ['bin/bandbend.js', ...args], { cwd: root, encoding: 'utf8', env, timeout: 120_000 });
+  if (r.error) throw r.error;
+  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
 }

@@ -7,6 +7,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { TopLevelSpec } from 'vega-lite';
 import { InputError } from '../src/errors.js';
+import { NO_DEFECTS } from '../src/inputs/defectInputs.js';
 import { contactCautions, HYDROGEN_CAUTIONS, SCREENING_CAUTION } from '../src/output/cautions.js';
 import type { ContactResult } from '../src/types.js';
 import { escapeHtml, escapeMarkdownCell, stripControl } from '../src/output/escape.js';
@@ -160,22 +161,7 @@ function depletionFixture(over: Partial<FixtureParams> = {}): ContactResult {
       vacancyDensity_cm3: null,
       equilibrationTemperature_K: null,
     },
-    defects: {
-      history: 'none',
-      reactionGas: null,
-      reactionGasValue: null,
-      oxygenPartialPressure_bar: null,
-      log10OxygenPartialPressure_bar: null,
-      vacancies_cm3: null,
-      equilibriumVacancies_cm3: null,
-      reequilibrationTime_s: null,
-      equilibratedFraction: null,
-      timeOnStream_s: null,
-      grainSize_nm: null,
-      overlayerThickness_nm: null,
-      annealTemperature_K: null,
-      notes: [],
-    },
+    defects: NO_DEFECTS, // src/inputs/defectInputs.ts: the block of a contact without defect inputs
     profile: {
       x_nm,
       conductionBand_eV: ec,
