@@ -9,13 +9,12 @@
 // Physics checks name their source next to them. Material values are read through `materials show --json`
 // or given as custom inputs, so the tests do not hard-code library numbers.
 import { spawnSync } from 'node:child_process';
-import { createHash } from 'node:crypto';
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, relative } from 'node:path';
+import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { parseCsv } from './helpers.js';
+import { folderSnapshot, parseCsv } from './helpers.js';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
 
@@ -99,20 +98,7 @@ function parseJson<T = Record<string, unknown>>(r: Run): T {
 }
 
 
-/** Every file under dir -> sha256 of its content and its mtime, to prove a refused command left them alone. */
-function snapshot(dir: string): Record<string, string> {
-  const out: Record<string, string> = {};
-  const walk = (d: string): void => {
-    for (const name of readdirSync(d)) {
-      const p = join(d, name);
-      const st = statSync(p);
-      if (st.isDirectory()) walk(p);
-      else out[relative(dir, p)] = `${createHash('sha256').update(readFileSync(p)).digest('hex')} ${st.mtimeMs}`;
-    }
-  };
-  walk(dir);
-  return out;
-}
+const snapshot = folderSnapshot; // test/helpers.ts
 
 function relClose(actual: number, expected: number, tolerance: number, label: string): void {
   expect(Math.abs(actual / expected - 1), `${label}: ${actual} vs ${expected}`).toBeLessThan(tolerance);

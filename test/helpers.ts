@@ -1,5 +1,8 @@
 // Shared test helpers: independent reference computations written for the tests (not the project's code paths).
 import { spawnSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join, relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { makeChargeModel, solveBulkNeutrality, type SupportElectronic } from '../src/bulk/equilibrium.js';
 import type { ContactOptions } from '../src/inputs/parameters.js';
@@ -175,4 +178,19 @@ export function runBandbend(args: string[]): { code: number | null; stdout: stri
   const r = spawnSync(process.execPath, ['bin/bandbend.js', ...args], { cwd: root, encoding: 'utf8', env, timeout: 120_000 });
   if (r.error) throw r.error;
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+/** Every file under dir -> sha256 of its content and its mtime, to prove a refused command left them alone. */
+export function folderSnapshot(dir: string): Record<string, string> {
+  const out: Record<string, string> = {};
+  const walk = (d: string): void => {
+    for (const name of readdirSync(d)) {
+      const p = join(d, name);
+      const st = statSync(p);
+      if (st.isDirectory()) walk(p);
+      else out[relative(dir, p)] = `${createHash('sha256').update(readFileSync(p)).digest('hex')} ${st.mtimeMs}`;
+    }
+  };
+  walk(dir);
+  return out;
 }

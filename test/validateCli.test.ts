@@ -8,12 +8,13 @@
 // non-empty report folder). The statistics' values are not fixed here: they change when the library default model
 // does (test/validation.test.ts guards them against baseline.json).
 import { spawnSync } from 'node:child_process';
-import { createHash } from 'node:crypto';
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, relative } from 'node:path';
+import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { folderSnapshot } from './helpers.js';
+import type { ValidationRow } from '../src/validation/gallery.js';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
 
@@ -45,34 +46,9 @@ function expectBadInput(r: Run, ...mentions: string[]): void {
   for (const m of mentions) expect(lines[0], show(r)).toContain(m);
 }
 
-function snapshot(dir: string): Record<string, string> {
-  const out: Record<string, string> = {};
-  const walk = (d: string): void => {
-    for (const name of readdirSync(d)) {
-      const p = join(d, name);
-      const st = statSync(p);
-      if (st.isDirectory()) walk(p);
-      else out[relative(dir, p)] = `${createHash('sha256').update(readFileSync(p)).digest('hex')} ${st.mtimeMs}`;
-    }
-  };
-  walk(dir);
-  return out;
-}
+const snapshot = folderSnapshot; // test/helpers.ts
 
-interface Row {
-  kind: 'barrier' | 'charge' | 'bandBending';
-  id: string;
-  metal: string;
-  support: string;
-  metalKey?: string | null;
-  supportKey?: string | null;
-  verified: boolean;
-  measured: number | null;
-  measuredSign?: string;
-  measuredRange?: [number, number] | null;
-  predicted: number | null;
-  status: string;
-}
+type Row = ValidationRow; // the rows of `validate --json` are the gallery's rows (src/validation/gallery.ts)
 interface Stats {
   barrier: { meanAbsoluteError_eV: number | null; rowMeanAbsoluteError_eV: number | null; pairs: number; rows: number };
   charge: { signAgreement: number | null; signRows: number; withinFactor3: number | null; magnitudeRows: number };
