@@ -69,6 +69,11 @@ function reactionGasOf(c: DefectContext): { gas: ReactionGas; label: string; val
   return { gas: { kind: 'CO/CO2', monoxideToDioxide: co }, label: 'CO/CO2', value: co };
 }
 
+/** The support's band edges and masses, as the vacancy mass-action law needs them. */
+function bandOf(c: DefectContext): { bandGap_eV: number; electronMass_me: number; holeMass_me: number } {
+  return { bandGap_eV: c.num('bandGap')!, electronMass_me: c.num('electronMass')!, holeMass_me: c.num('holeMass')! };
+}
+
 function diffusionOf(c: DefectContext): AtmosphereSpec['diffusion'] {
   const prefactor = c.num('oxygenDiffusionPrefactor');
   return prefactor === undefined ? null : { prefactor_m2_s: prefactor, activation_eV: c.num('oxygenDiffusionActivation')! };
@@ -90,7 +95,7 @@ export function atmosphereDonors(c: DefectContext, reduction: PretreatmentInfo |
     reduction: reduction === null ? null : { temperature_K: reduction.reductionTemperature_K!, gas: { kind: 'O2', oxygenPressure_bar: reduction.oxygenPressure_Pa! / 1e5 } },
     grainSize_m: c.num('grainSize')!,
     diffusion: diffusionOf(c),
-    band: { bandGap_eV: c.num('bandGap')!, electronMass_me: c.num('electronMass')!, holeMass_me: c.num('holeMass')! },
+    band: bandOf(c),
   };
   const source: VacancySource = { kind: 'atmosphere', spec, oxygenSites_cm3: thermo.oxygenSites_cm3 };
   const a = vacanciesOfSource(source, thermo.enthalpy_eV, thermo.entropy_kB).atmosphere!;
@@ -154,7 +159,7 @@ export function overlayerDonors(c: DefectContext): DefectDonors {
             system: {
               formation: { kind: 'reduction', enthalpy_eV, entropy_kB },
               oxygenSites_cm3,
-              band: { bandGap_eV: c.num('bandGap')!, electronMass_me: c.num('electronMass')!, holeMass_me: c.num('holeMass')!, statistics: 'boltzmann' },
+              band: { ...bandOf(c), statistics: 'boltzmann' },
             },
           };
   }
