@@ -214,6 +214,11 @@ function barrierRows(result: ContactResult, kT: number): ResultRow[] {
 }
 
 /** Interface-state model (Bardeen; Cowley & Sze 1965): only when it was used. */
+/** A charge per area in C/m^2 and in elementary charges per cm^2. */
+function perCm2(charge_C_per_m2: number): string {
+  return `${formatSigned(charge_C_per_m2)} C/m^2 (${formatSigned(charge_C_per_m2 / Q_ELEMENTARY_C / 1e4)} e/cm^2)`;
+}
+
 function interfaceStateRows(result: ContactResult): ResultRow[] {
   const it = result.interfaceStates;
   if (it === null) return [];
@@ -221,7 +226,6 @@ function interfaceStateRows(result: ContactResult): ResultRow[] {
   add('density of interface states', formatQuantity(it.stateDensity_per_eV_cm2, 'eV^-1 cm^-2'));
   add('charge-neutrality level above E_V', formatQuantity(it.neutralLevelAboveValence_eV, 'eV'));
   add('interfacial layer (thickness, permittivity)', `${formatQuantity(it.layerThickness_nm, 'nm')}, ${formatNumber(it.layerPermittivity)}`);
-  const perCm2 = (q: number) => `${formatSigned(q)} C/m^2 (${formatSigned(q / Q_ELEMENTARY_C / 1e4)} e/cm^2)`;
   add('interface-state charge (+ = states gave electrons to the metal)', perCm2(it.interfaceStateCharge_C_per_m2));
   add('metal charge -(space charge + interface states)', perCm2(it.metalCharge_C_per_m2));
   add('potential step across the layer', formatQuantity(it.layerDrop_eV, 'eV'));
@@ -231,8 +235,7 @@ function interfaceStateRows(result: ContactResult): ResultRow[] {
 
 function spaceChargeRows(result: ContactResult): ResultRow[] {
   const { rows, add } = groupRows('space charge');
-  const chargePerCm2 = result.spaceCharge_C_per_m2 / Q_ELEMENTARY_C / 1e4;
-  add('space charge (support side)', `${formatSigned(result.spaceCharge_C_per_m2)} C/m^2 (${formatSigned(chargePerCm2)} e/cm^2)`);
+  add('space charge (support side)', perCm2(result.spaceCharge_C_per_m2));
   add('charge-equivalent width', formatQuantity(result.chargeEquivalentWidth_nm, 'nm'));
   add('depletion width (depletion approximation)', formatQuantity(result.depletionWidthApprox_nm, 'nm'));
   add('Debye length', formatQuantity(result.debyeLength_nm, 'nm'));
