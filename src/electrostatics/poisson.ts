@@ -88,6 +88,10 @@ const ASYMPTOTIC_RATIO = [3.6, 4.5] as const;
 const MAX_FINE_NODES = 40000;
 /** Newton stops after applying a step below this (times max(1, |u_s|)), in kT */
 const NEWTON_STOP = 1e-7;
+/** ... or once the charge still to change after the step is below this fraction of the tolerance (chargeSettled) */
+const CHARGE_STOP_FRACTION = 5e-2;
+/** ... provided the step is below this, kT (the profile itself is then within K s^2 ~ 3e-5 kT) */
+const CHARGE_STOP_MAX_STEP = 1e-2;
 /** ... or after a step s whose predicted remaining error K s^2 is below this, kT */
 const PREDICTED_STOP = 1e-8;
 const LINEAR_STOP = 3e-4;
@@ -102,8 +106,8 @@ const LINEAR_STOP = 3e-4;
  * Units: SI inside (m, per m^3); u, xi in kT.  Ranges: |u_s| up to ~1e4 kT; temperature 1-5000 K.
  * Method: vertex-centred finite volumes, damped Newton (tridiagonal Jacobian), on a graded mesh from the planar
  * first integral that is then bisected: each level is solved from the previous one (interpolated, corrected by the
- * Richardson estimate of its discretisation error, midpoints relaxed), the charge is
- * Richardson-extrapolated from the last two levels (second-order scheme), and bisection continues until
+ * Richardson estimate of its discretisation error; Newton stops once the charge has settled, see chargeSettled), the
+ * charge is Richardson-extrapolated from the last two levels (second-order scheme), and bisection continues until
  * |Q_fine - Q_coarse| / 3 <= tolerance |Q| or the node cap. The same strategy as adaptive BVP codes that bound
  * the residual of the continuous solution (cf. Kierzenka & Shampine, ACM TOMS 27, 299 (2001), the method of
  * scipy.integrate.solve_bvp), applied here to the one functional that matters, the total charge.
@@ -137,6 +141,8 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
     residue: firstIntegral.bulkResidue_m3,
     farEnd: screened ? screenedTail(model, xiBulk, beta, firstIntegral.bulkResidue_m3, geometry) : null,
     contraction: 0,
+    endFluxSlope: 0,
+    tolerance,
     workspace: new Float64Array(0),
   };
   const mesh = buildMesh({
@@ -177,7 +183,7 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
     const fineX = bisectMesh(x, arena(2 * x.length - 1));
     const start = older === null ? coarse.u : extrapolateLevel(coarse.u, older, arena(x.length));
     const fineGuess = interpolateToBisected(x, start, arena(2 * x.length - 1));
-    fine = newtonOnMesh(system, uSurface, fineX, fineGuess, maxIterations, true);
+    fine = newtonOnMesh(system, uSurface, fineX, fineGuess, maxIterations);
     iterations += fine.iterations;
     levels++;
     x = fineX;
@@ -438,6 +444,10 @@ interface DiscreteSystem {
   farEnd: FarEnd | null;
   /** largest Newton contraction constant K (s_k / s_(k-1)^2) measured so far in this solve; 0 = none yet */
   contraction: number;
+  /** A(L) g'(u_L) of the far-end condition at the last evaluation (0 for zero field) */
+  endFluxSlope: number;
+  /** relative charge tolerance of the solve */
+  tolerance: number;
   /** work arrays shared by the mesh solves (see acquireWorkspace) */
   workspace: Float64Array;
 }
@@ -451,26 +461,37 @@ interface MeshSolution {
 }
 
 /**
- * One Newton step of each midpoint's own equation with its two neighbours held (nonlinear Jacobi on the nodes a
- * bisection added; the odd nodes couple only to even ones, so the steps are independent). The even nodes come
- * from the coarser solution (Richardson-corrected), the midpoints only from interpolation: this brings them to
- * the accuracy of their neighbours, so that one global Newton step usually suffices on the finer mesh.
+ * Newton stop on the charge, the one functional the tolerance is about. After the step s the remaining error of u
+ * is below ~K s_max |s_i| at node i (quadratic convergence, K measured), and the linearised charge N + N' s the
+ * solve returns is off by at most |N''| s_i^2 / 2 <= |N'| s_max |s_i| (|N''| <= |N'| for Fermi-Dirac and
+ * Boltzmann carriers, F_-3/2 <= F_-1/2, and for Fermi occupancies, |f''| = |f'(1 - 2f)|; <= 2|N'| for a defect with
+ * charges 0..2, whose third cumulant is at most 2 times its variance). So the charge is off by at most
+ * (K + 1) s_max sum_i |dN/du|_i |s_i| beta V_i (plus the far end's share through g'(u_L)); settled when that is below
+ * CHARGE_STOP_FRACTION of the tolerance relative to the charge. Saves a Newton step where the charge barely depends
+ * on u (a depletion layer: N = N_D whatever u).
  */
-function relaxOddNodes(system: DiscreteSystem, u: Float64Array, faceCoefficient: Float64Array, betaVolume: Float64Array): void {
-  const { model, xiBulk, residue } = system;
-  const charge = new Float64Array(2);
-  for (let i = 1; i < u.length - 1; i += 2) {
-    model.netCharge(xiBulk - u[i]!, charge);
-    const right = faceCoefficient[i]!;
-    const left = faceCoefficient[i - 1]!;
-    const r = right * (u[i + 1]! - u[i]!) - left * (u[i]! - u[i - 1]!) - betaVolume[i]! * (charge[0]! - residue);
-    const d = -right - left + betaVolume[i]! * charge[1]!;
-    const next = u[i]! - r / d;
-    // stay between the neighbours (the profile is monotone between two nodes of the coarser mesh)
-    const lo = Math.min(u[i - 1]!, u[i + 1]!);
-    const hi = Math.max(u[i - 1]!, u[i + 1]!);
-    if (Number.isFinite(next)) u[i] = Math.min(hi, Math.max(lo, next));
+function chargeSettled(
+  system: DiscreteSystem,
+  n: number,
+  step: Float64Array,
+  nodeCharge: Float64Array,
+  nodeSlope: Float64Array,
+  betaVolume: Float64Array,
+  maxStep: number,
+): boolean {
+  if (!(system.contraction > 0)) return false;
+  let charge = 0;
+  let change = 0;
+  for (let i = 1; i < n; i++) {
+    const ds = nodeSlope[i]! * step[i]!;
+    charge += (nodeCharge[i]! + ds) * betaVolume[i]!;
+    change += Math.abs(ds) * betaVolume[i]!;
   }
+  if (system.farEnd !== null) {
+    // endFluxSlope: A(L) g'(u_L) from the last residual evaluation
+    change += Math.abs(system.endFluxSlope * step[n - 1]!);
+  }
+  return (system.contraction + 1) * maxStep * change <= CHARGE_STOP_FRACTION * system.tolerance * Math.abs(charge);
 }
 
 /** views per node in one mesh solve's workspace */
@@ -496,7 +517,6 @@ function newtonOnMesh(
   x: Float64Array,
   initial: Float64Array,
   maxIterations: number,
-  relaxMidpoints = false,
 ): MeshSolution {
   const { model, xiBulk, beta, geometry, residue, farEnd } = system;
   const n = x.length;
@@ -560,6 +580,7 @@ function newtonOnMesh(
         farEnd.flux(values[i]!, x[i]!, endFlux);
         r -= endArea * endFlux[0]!;
         d -= endArea * endFlux[1]!;
+        system.endFluxSlope = endArea * endFlux[1]!;
       }
       out[i] = r;
       outCharge[i] = charge[0]! - residue;
@@ -572,7 +593,6 @@ function newtonOnMesh(
     return Math.sqrt(norm / (n - 1));
   };
 
-  if (relaxMidpoints) relaxOddNodes(system, initial, faceCoefficient, betaVolume);
   let iterations = 0;
   let u: Float64Array = initial;
   for (let i = 1; i < n; i++) {
@@ -599,7 +619,11 @@ function newtonOnMesh(
     // error left is far below anything the charge tolerance can see. Without a measured K: stop only below 1e-7 kT.
     if (previousFullStep > 0 && previousFullStep < 1) system.contraction = Math.max(system.contraction, maxStep / (previousFullStep * previousFullStep));
     const predicted = system.contraction * maxStep * maxStep;
-    if (maxStep < NEWTON_STOP * Math.max(1, Math.abs(uSurface)) || (predicted < PREDICTED_STOP && maxStep < LINEAR_STOP)) {
+    if (
+      maxStep < NEWTON_STOP * Math.max(1, Math.abs(uSurface)) ||
+      (maxStep < LINEAR_STOP && predicted < PREDICTED_STOP) ||
+      (maxStep < CHARGE_STOP_MAX_STEP && chargeSettled(system, n, step, nodeCharge, nodeSlope, betaVolume, maxStep))
+    ) {
       for (let i = 1; i < n; i++) u[i] = u[i]! + step[i]!;
       converged = true;
       break;
