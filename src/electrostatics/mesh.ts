@@ -29,6 +29,8 @@ export interface PlanarFirstIntegral {
 const GEOMETRIC_POINTS = 24;
 const UNIFORM_POINTS = 48;
 const SMALLEST_FRACTION = 1e-14;
+/** |u| below which the first-integral table uses the bulk's linear response instead of the charge model, kT */
+const LINEAR_TABLE_U = 1e-4;
 
 export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface: number, beta: number): PlanarFirstIntegral {
   const sign = uSurface >= 0 ? 1 : -1;
@@ -62,9 +64,22 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
   const chargeValues = take();
   const chargeSlopes = take();
   let previousCharge = 0;
+  // dN/du in the bulk: below LINEAR_TABLE_U the table takes N = s1 u (relative error <= |u|, as |N''| <= 2|N'| for
+  // carriers and defect occupancies) instead of calling the charge model (a fifth of the calls of this function)
+  const bulkChargeSlope = bulkSlope;
+  const bulkDebye = bulkScreening_m;
   for (let k = 0; k < m; k++) {
     const u = sign * magnitude * fractions[k]!;
     uValues[k] = u;
+    if (Math.abs(u) <= LINEAR_TABLE_U && bulkChargeSlope > 0) {
+      const linear = bulkChargeSlope * u;
+      debyeLengths[k] = bulkDebye;
+      chargeValues[k] = linear;
+      chargeSlopes[k] = bulkChargeSlope;
+      if (k > 0) gValues[k] = gValues[k - 1]! + 0.5 * (previousCharge + linear) * (u - uValues[k - 1]!);
+      previousCharge = linear;
+      continue;
+    }
     model.netCharge(xiBulk - u, charge);
     // N has the sign of u (dN/du > 0, N(0) = 0), so G grows monotonically; trapezoid in u
     const currentCharge = k === 0 ? 0 : charge[0]! - bulkResidue;
@@ -189,6 +204,12 @@ const MAX_NODES = 20000;
  * so that bisecting every cell gives the next member of one mesh family (used for Richardson extrapolation).
  */
 export function buildMesh(options: MeshOptions): Mesh {
+  const { nodes, truncated } = meshNodes(options);
+  return { x: Float64Array.from(nodes), truncated };
+}
+
+/** The nodes of buildMesh as a plain array (the caller copies them into its own buffer: one allocation less). */
+export function meshNodes(options: MeshOptions): { nodes: number[]; truncated: boolean } {
   const fi = options.firstIntegral;
   const bulkFinite = Number.isFinite(fi.bulkScreening_m);
   const coreEnd = fi.depthAtFraction(1e-6);
@@ -225,7 +246,7 @@ export function buildMesh(options: MeshOptions): Mesh {
   let scale = 1;
   for (let attempt = 0; attempt < 30; attempt++) {
     const nodes = generate(end, layerEnd, hSurface * scale, hCore * scale, options.refinement, (x) => scale * CORE_CELL_FRACTION * fi.localLength(x) / options.refinement);
-    if (nodes !== null) return { x: Float64Array.from(nodes), truncated };
+    if (nodes !== null) return { nodes, truncated };
     scale *= 1.5;
   }
   throw new RangeError(`mesh generation failed: more than ${MAX_NODES} nodes even after coarsening 30 times`);
