@@ -80,26 +80,34 @@ function worstOver(densities: number[], diameters: number[], ratios: number[]): 
   return { worst, rows, worstBelow };
 }
 
-// Issue 10 item 4: within 3% over densities 1e9-1e14 cm^-2, diameters 1-10 nm, layer depths 0.1-10x the spacing.
-// The geometry has no parameter fitted here: cell volumes are exact and the flux area's exponent 4 is the one
-// chosen before this change (on 1e9-1e13 cm^-2 x 1, 5 nm x 0.1-10x). Tried on this grid and rejected: the spherical
-// zone area itself as flux area (up to +13%) and a hard cap at the footprint (3.1%).
+// Issue 10 item 4: within 3% over densities 1e9-1e14 cm^-2, diameters 1-10 nm, layer depths 0.1-10x the spacing
+// (the 2D cell cannot hold particles that overlap: above ~5e13 cm^-2 for 1 nm particles it has no answer).
+// The geometry's one chosen number, the steepness 10 of the flux area's passage from spherical to flat
+// equipotentials at the cell radius (src/electrostatics/geometry.ts), was chosen on two training grids: the first
+// grid below and 5e9, 5e10, 5e11, 2e12, 6e12, 2e13, 5e13 cm^-2 x 1, 2, 5, 10 nm x layer 0.15, 0.5, 2, 6x the spacing
+// (70 points, worst 1.81%; steepness 8: 1.96%, 12: 1.81%, 16: 1.85%). The other two grids were not used to choose
+// it. Before (smooth minimum of hemisphere area and footprint): 2.16% on the first grid, 4.52% on the second,
+// 9.25% on the wider training grid (2e12 cm^-2, 5 nm, layer 0.15x the spacing).
 describe('particle array cell against the 2D cell (issue 10 item 4)', () => {
-  it('within 3% on 1e9-3e13 cm^-2 x 1, 3, 10 nm x layer 0.1, 1, 10x the spacing', () => {
+  it('training grid: within 3% on 1e9-3e13 cm^-2 x 1, 3, 10 nm x layer 0.1, 1, 10x the spacing', () => {
     const { worst, rows } = worstOver([1e9, 1e10, 1e11, 1e12, 1e13, 3e13], [1, 3, 10], [0.1, 1, 10]);
     console.log(`array cell vs 2D cell, max |deviation| ${(100 * worst).toFixed(2)}%\n${rows.join('\n')}`);
     expect(rows.length).toBeGreaterThan(20);
     expect(worst).toBeLessThan(0.03);
   }, 900_000);
-  // Not met everywhere: on this grid, seen only after the geometry was fixed, 21 of 22 points are within 2.5%, but
-  // near touching particles with a layer as thin as the particle (3e12 cm^-2, 3 nm, R/a 2.2, W = 0.3 spacing =
-  // 1.2 a) the cell is 4.5% low: a shell that still lies wholly inside the cell keeps the hemisphere's area, while
-  // the smooth minimum already narrows it toward the footprint. The bound below records that, it is not the target.
-  it('held-out grid (3e9-3e12 cm^-2 x 1.5, 3, 7 nm x layer 0.3, 3x the spacing): within 5%, 3% away from touching', () => {
-    const { worst, rows, worstBelow } = worstOver([3e9, 3e10, 3e11, 3e12], [1.5, 3, 7], [0.3, 3]);
+  it('held-out grid (3e9-3e12 cm^-2 x 1.5, 3, 7 nm x layer 0.3, 3x the spacing): within 3%', () => {
+    const { worst, rows } = worstOver([3e9, 3e10, 3e11, 3e12], [1.5, 3, 7], [0.3, 3]);
     console.log(`held-out grid, max |deviation| ${(100 * worst).toFixed(2)}%\n${rows.join('\n')}`);
     expect(rows.length).toBeGreaterThan(15);
-    expect(worst).toBeLessThan(0.05);
-    expect(worstBelow(1e12)).toBeLessThan(0.03);
+    expect(worst).toBeLessThan(0.03);
+  }, 900_000);
+  // a second held-out grid toward touching particles (R/a 2.3-4.7) and 1e13 cm^-2; its full version (2e9-4e13 cm^-2
+  // x 1.2, 2.5, 4, 8 nm x layer 0.12, 0.25, 0.7, 1.5, 4, 8x the spacing, 104 points) gave worst 2.10% (4e12 cm^-2,
+  // 2.5 nm, layer 1.5x the spacing)
+  it('second held-out grid (2e11-1e13 cm^-2 x 1.2, 2.5, 8 nm x layer 0.12, 1.5x the spacing): within 3%', () => {
+    const { worst, rows } = worstOver([2e11, 4e12, 1e13], [1.2, 2.5, 8], [0.12, 1.5]);
+    console.log(`second held-out grid, max |deviation| ${(100 * worst).toFixed(2)}%\n${rows.join('\n')}`);
+    expect(rows.length).toBeGreaterThan(8);
+    expect(worst).toBeLessThan(0.03);
   }, 900_000);
 });
