@@ -146,6 +146,7 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
     endFluxSlope: 0,
     tolerance,
     workspace: new Float64Array(0),
+    views: [],
   };
   const mesh = meshNodes({
     firstIntegral,
@@ -228,7 +229,7 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
   const last = x.length - 1;
   // the charge profile lives in the shared workspace: copy it out
   const netCharge_m3 = arena(x.length);
-  netCharge_m3.set(fine.netCharge);
+  for (let i = 0; i < x.length; i++) netCharge_m3[i] = fine.netCharge[i]!;
   // Gauss's law on the discrete system: the flux into the support at x = 0 balances the total charge
   const totalCharge_C = Q_ELEMENTARY_C * chargeSum;
   const interfaceSlope_per_m = (-beta * chargeSum) / geometry.interfaceArea_m2;
@@ -455,10 +456,13 @@ interface DiscreteSystem {
   tolerance: number;
   /** work arrays shared by the mesh solves (see acquireWorkspace) */
   workspace: Float64Array;
+  /** WORK_ARRAYS views of the workspace, made on first use */
+  views: Float64Array[];
 }
 
 interface MeshSolution {
   u: Float64Array;
+  /** at the first n nodes (a workspace view that may be longer) */
   netCharge: Float64Array;
   /** sum of N_i V_i, per m^3 times m^3 */
   chargeSum: number;
@@ -505,16 +509,24 @@ const WORK_ARRAYS = 16;
 /**
  * The work arrays of a mesh solve, shared by every mesh of one problem: allocated once by solveControlled for the
  * mesh the solve expects to finish on (eight times the first; typed arrays are costly to create and collect),
- * grown when a finer mesh is needed.
+ * grown when a finer mesh is needed. WORK_ARRAYS views at least n long (a mesh uses the first n entries).
  */
-function acquireWorkspace(system: DiscreteSystem, n: number): Float64Array {
-  if (system.workspace.length < WORK_ARRAYS * n) system.workspace = new Float64Array(WORK_ARRAYS * 2 * n);
-  return system.workspace;
+function acquireWorkspace(system: DiscreteSystem, n: number): Float64Array[] {
+  if (system.workspace.length < WORK_ARRAYS * n) {
+    system.workspace = new Float64Array(WORK_ARRAYS * 2 * n);
+    system.views = [];
+  }
+  if (system.views.length === 0) {
+    // the views are made once per buffer (creating a typed-array view costs ~0.1 us: 16 per mesh added up)
+    const capacity = system.workspace.length / WORK_ARRAYS;
+    for (let k = 0; k < WORK_ARRAYS; k++) system.views.push(system.workspace.subarray(k * capacity, (k + 1) * capacity));
+  }
+  return system.views;
 }
 
 /**
  * Damped Newton for the finite-volume system on one mesh; u[0] is the Dirichlet value. Returns the profile in
- * `initial`; netCharge is a view of the shared workspace, valid until the next mesh solve.
+ * `initial`; netCharge is a view of the shared workspace (its first n entries), valid until the next mesh solve.
  */
 function newtonOnMesh(
   system: DiscreteSystem,
@@ -530,11 +542,11 @@ function newtonOnMesh(
   const last = n - 1;
   // geometry factors: face coefficient A/h between node i and i+1, control volume of node i
   // one allocation for every work array of this solve (typed arrays are costly to create one by one)
-  const workspace = acquireWorkspace(system, n);
+  const views = acquireWorkspace(system, n);
   let slot = 0;
-  const take = (): Float64Array => workspace.subarray(n * slot++, n * slot);
+  const take = (): Float64Array => views[slot++]!;
   const faceCoefficient = take();
-  const volume = take().fill(0);
+  const volume = take().fill(0, 0, n);
   for (let i = 0; i < last; i++) {
     const h = x[i + 1]! - x[i]!;
     faceCoefficient[i] = geometry.faceArea(x[i]!, x[i + 1]!) / h;
@@ -609,14 +621,20 @@ function newtonOnMesh(
   const stepCap = Math.max(10, 0.25 * Math.abs(uSurface));
   while (iterations < maxIterations) {
     iterations++;
-    for (let i = 1; i < n; i++) residual[i] = -residual[i]!;
     // factor the Jacobian once: the Newton step and every simplified step of the line search reuse it
     // (upper[i] = faceCoefficient[i]; the factorisation never reads upper at the last node)
     const ok = factorTridiagonal(n - 1, lower, diag, faceCoefficient, inversePivot, work, 1);
     if (!ok) throw new ConvergenceError('singular Jacobian', iterations);
+    // J s = -R: solve J y = R, then s = -y (one pass with the step's norms)
     solveFactoredTridiagonal(n - 1, lower, inversePivot, work, residual, step, 1);
     let maxStep = 0;
-    for (let i = 1; i < n; i++) maxStep = Math.max(maxStep, Math.abs(step[i]!));
+    let stepSquares = 0;
+    for (let i = 1; i < n; i++) {
+      const si = -step[i]!;
+      step[i] = si;
+      maxStep = Math.max(maxStep, Math.abs(si));
+      stepSquares += si * si;
+    }
     if (!Number.isFinite(maxStep)) throw new ConvergenceError('non-finite Newton step', iterations);
     // Newton converges quadratically: after applying a step s the remaining error is ~K s^2. K is measured on the
     // full steps of this solve (K = s_k / s_(k-1)^2, the largest seen kept); once K s^2 is below PREDICTED_STOP
@@ -636,9 +654,7 @@ function newtonOnMesh(
     // damping (Deuflhard's natural monotonicity test): cap the largest move, then halve the step until the
     // simplified Newton correction J_old^-1 R(trial) is smaller than the step itself; affine invariant, so it
     // does not care that node residuals differ by tens of orders of magnitude between interface and bulk
-    let stepNorm = 0;
-    for (let i = 1; i < n; i++) stepNorm += step[i]! * step[i]!;
-    stepNorm = Math.sqrt(stepNorm / (n - 1));
+    const stepNorm = Math.sqrt(stepSquares / (n - 1));
     let t = Math.min(1, stepCap / maxStep);
     let trialNorm = Infinity;
     let accepted = false;
@@ -710,6 +726,6 @@ function newtonOnMesh(
     chargeSum += (endArea * endFlux[0]!) / beta;
   }
   // the profile is returned in the caller's array: the workspace views are reused by the next mesh
-  if (u !== initial) initial.set(u);
+  if (u !== initial) for (let i = 0; i < n; i++) initial[i] = u[i]!;
   return { u: initial, netCharge, chargeSum, iterations };
 }
