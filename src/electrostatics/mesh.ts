@@ -27,7 +27,7 @@ export interface PlanarFirstIntegral {
 }
 
 const GEOMETRIC_POINTS = 24;
-const UNIFORM_POINTS = 48;
+const UNIFORM_POINTS = 24;
 const SMALLEST_FRACTION = 1e-14;
 /** |u| below which the first-integral table uses the bulk's linear response instead of the charge model, kT */
 const LINEAR_TABLE_U = 1e-4;
@@ -48,8 +48,9 @@ export function planarFirstIntegral(model: ChargeModel, xiBulk: number, uSurface
 
   // fractions s of |u_s|: geometric near 0 (where x(u) diverges logarithmically), uniform above
   const fractions: number[] = [0];
-  // at least two points per kT of bending, so sharp ionisation fronts (a few kT wide in u) are seen
-  const uniformPoints = Math.min(4000, Math.max(UNIFORM_POINTS, Math.ceil(2 * magnitude)));
+  // at least one point per kT of bending, so sharp ionisation fronts (a few kT wide in u) are seen (two per kT cost
+  // a tenth of a typical solve and changed neither the iterations nor the meshes of 9000 random cases by 1%)
+  const uniformPoints = Math.min(4000, Math.max(UNIFORM_POINTS, Math.ceil(magnitude)));
   const firstUniform = 1 / uniformPoints;
   const growth = Math.pow(firstUniform / SMALLEST_FRACTION, 1 / GEOMETRIC_POINTS);
   for (let k = 0, f = SMALLEST_FRACTION; k < GEOMETRIC_POINTS; k++, f *= growth) fractions.push(f);
