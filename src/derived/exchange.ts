@@ -216,11 +216,15 @@ export function exchangeCurrentThroughProfile(input: ProfileExchangeInput): Prof
   const bottom = ec[n - 1]!;
   // 2 sqrt(2 m*) / hbar in 1/(m sqrt(eV))
   const kappaScale = (2 * Math.sqrt(2 * input.massRatio * M_ELECTRON_KG * Q_ELEMENTARY_C)) / HBAR_J_S;
+  // highest E_C from node i to the bulk: cells from the first i with tailTop[i] <= E on are allowed (no term)
+  const tailTop = new Float64Array(n);
+  tailTop[n - 1] = ec[n - 1]!;
+  for (let i = n - 2; i >= 0; i--) tailTop[i] = Math.max(ec[i]!, tailTop[i + 1]!);
   /** ln T(E): exact integral of sqrt(E_C - E) over each cell with linear E_C */
   const logTransmission = (energy: number): number => {
     if (energy >= top) return 0;
     let integral = 0;
-    for (let i = 0; i < n - 1; i++) {
+    for (let i = 0; i < n - 1 && tailTop[i]! > energy; i++) {
       const a = ec[i]! - energy;
       const b = ec[i + 1]! - energy;
       if (a <= 0 && b <= 0) continue;
