@@ -4,7 +4,8 @@ import { stripTerminalControl } from '../output/escape.js';
 
 /** The JSON text the CLI prints (also the explorer page's downloads); non-finite numbers become null. */
 export function jsonText(value: unknown): string {
-  return `${JSON.stringify(value, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2)}\n`;
+  // JSON.stringify itself writes NaN and +-Infinity as null (ECMA-262 SerializeJSONProperty): no replacer call per value
+  return `${JSON.stringify(value, null, 2)}\n`;
 }
 
 /** One JSON document on stdout; non-finite numbers become null. */
