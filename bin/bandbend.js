@@ -1,6 +1,19 @@
 #!/usr/bin/env node
-// Thin launcher: the compiled CLI lives in dist/ (run `npm run build` first).
-import { main } from '../dist/cli/main.js';
+// Thin launcher: the compiled CLI lives in dist/ (run `npm run build` first). `npm run build` also bundles it into
+// dist/bundle/ (src/cli/bundle.ts: two files to load instead of about fifty); that bundle runs when it is at least as
+// new as the compiled CLI, else (after a bare `tsc`) the compiled files do, so a stale bundle never runs.
+import { statSync } from 'node:fs';
+
+function bundleIsFresh() {
+  try {
+    const bundle = statSync(new URL('../dist/bundle/bandbend.mjs', import.meta.url)).mtimeMs;
+    return bundle >= statSync(new URL('../dist/cli/main.js', import.meta.url)).mtimeMs;
+  } catch {
+    return false;
+  }
+}
+
+const { main } = await import(bundleIsFresh() ? '../dist/bundle/bandbend.mjs' : '../dist/cli/main.js');
 
 main(process.argv.slice(2)).then(
   (code) => {

@@ -637,6 +637,27 @@ describe('bandbend study', () => {
     expect(existsSync(join(out, 'report', 'index.html'))).toBe(true);
   });
 
+  it('study warnings: results.jsonl has the {code, message} array of contact --json, results.csv the codes joined by ";" (one API style)', () => {
+    const file = writeStudy('warnings.yaml', studyText(['{ field: metal, values: [Pt, Au] }', '{ field: donors, values: [1e16, 1e19], unit: cm^-3 }'], 'bandBending_eV, warnings'));
+    const out = tmpPath('study-warnings');
+    const r = bandbend(['study', file, '--out', out]);
+    expect(r.code, show(r)).toBe(0);
+    const [header, ...rows] = parseCsv(readFileSync(join(out, 'results.csv'), 'utf8'));
+    const col = header!.indexOf('warnings');
+    const jsonl = readFileSync(join(out, 'results.jsonl'), 'utf8').trim().split('\n').map((l) => JSON.parse(l) as Record<string, unknown>);
+    const custom = ['--temperature', '300 K', '--electron-affinity', '4.2', '--band-gap', '3.2', '--permittivity', '10', '--optical-permittivity', '5', '--electron-mass', '0.3', '--hole-mass', '1'];
+    let withWarnings = 0;
+    for (const [i, row] of jsonl.entries()) {
+      const contact = parseJson<{ warnings: { code: string; message: string }[] }>(
+        bandbend(['contact', '--metal', String(row['metal']), '--donors', `${String(row['donors [cm^-3]'])} cm^-3`, ...custom, '--json']),
+      );
+      expect(row['warnings']).toEqual(contact.warnings);
+      expect(rows[i]![col]).toBe(contact.warnings.map((w) => w.code).join(';'));
+      if (contact.warnings.length > 0) withWarnings++;
+    }
+    expect(withWarnings).toBeGreaterThan(0); // the check above compared some non-empty arrays
+  });
+
   it('records a failing point with its message and completes the others', () => {
     const file = writeStudy(
       'one-bad.yaml',

@@ -222,6 +222,30 @@ describe('exchange current through the computed barrier', () => {
   });
 });
 
+describe('planar charge of the band bending (the Q(V) of the relaxation)', () => {
+  it('matches the closed form (Boltzmann, fully ionised donors; Sze & Ng, 3rd ed., ch. 4) to 1e-9, on and off its piece grid, in depletion and accumulation, called in any order', () => {
+    const s = {
+      temperature_K: 300,
+      bandGap_eV: 3.3,
+      electronMass_me: 0.3,
+      holeMass_me: 1,
+      donors: { density_m3: 1e23, kind: 'single' as const },
+      acceptors: { density_m3: 0 },
+      statistics: 'boltzmann' as const,
+    };
+    const model = makeChargeModel(s);
+    const bulk = solveBulkNeutrality(model);
+    const q = planarChargeOfBending(model, bulk.reducedFermiLevel, 8.5, 300);
+    const kT = model.kT_eV;
+    // deep first (the running sums grow at once), then small, grid points (u = k/2) and between them, and negative V
+    for (const u of [60, 1e-6, 0.25, 0.5, 3, 7.3, 40.5, 2.0000001, -1e-5, -0.5, -2.7, -12]) {
+      const exact = boltzmannPlanarCharge(bulk.electronDensity_m3, bulk.holeDensity_m3, u, 8.5, 300);
+      expect(Math.abs(q(u * kT) / exact - 1), `u = ${u}`).toBeLessThan(1e-9);
+    }
+    expect(q(0)).toBe(0);
+  });
+});
+
 describe('relaxation time to 99% of the equilibrium charge', () => {
   it('linear limit: a capacitor C discharging through q J0 / kT reaches 99% after tau ln 100, tau = C kT/(q J0)', () => {
     const c = 1e-2; // F/m^2

@@ -96,6 +96,21 @@ describe('unit strings are never evaluated (CLI exit 2)', () => {
   });
 });
 
+describe('empty strings name their field (CLI exit 2, one line)', () => {
+  it('an empty --materials path, list entry, study file, shard folder or numeric study option', () => {
+    const study = join(ROOT, 'examples', 'study-support-reduction.yaml');
+    const out = join(work, 'empty-strings');
+    expectBadInput(bandbend([...PAIR, '--materials', '']), '--materials', 'missing path');
+    expectBadInput(bandbend(['materials', 'list', '--materials', '']), '--materials', 'missing path');
+    expectBadInput(bandbend(['screen', '--metals', 'Pt,,Au', '--supports', 'ZnO']), '--metals', 'empty name');
+    expectBadInput(bandbend(['screen', '--metals', 'Pt', '--supports', 'ZnO,']), '--supports', 'empty name');
+    expectBadInput(bandbend(['study', '', '--out', out]), 'study FILE', 'missing path');
+    expectBadInput(bandbend(['study', 'merge', '', '--out', out]), 'study merge', 'missing path');
+    expectBadInput(bandbend(['study', study, '--out', out, '--jobs', '']), '--jobs', 'missing value');
+    expectBadInput(bandbend(['study', study, '--out', out, '--point-timeout', ' ']), '--point-timeout', 'missing value');
+  });
+});
+
 describe('files that are not regular files (CLI exit 2, one line, no file bytes echoed)', () => {
   it('--materials /dev/zero, a symbolic link to it, a FIFO, a folder, a missing file', () => {
     expectBadInput(bandbend([...PAIR, '--materials', '/dev/zero']), '/dev/zero', 'only regular files are read');

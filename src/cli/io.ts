@@ -1,10 +1,12 @@
 // Small helpers shared by the commands: JSON on stdout, bounded reads of input files.
+import { InputError } from '../errors.js';
 import { MAX_INPUT_FILE_BYTES, readTextFile } from '../inputs/files.js';
 import { stripTerminalControl } from '../output/escape.js';
 
 /** The JSON text the CLI prints (also the explorer page's downloads); non-finite numbers become null. */
 export function jsonText(value: unknown): string {
-  return `${JSON.stringify(value, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2)}\n`;
+  // JSON.stringify itself writes NaN and +-Infinity as null (ECMA-262 SerializeJSONProperty): no replacer call per value
+  return `${JSON.stringify(value, null, 2)}\n`;
 }
 
 /** One JSON document on stdout; non-finite numbers become null. */
@@ -14,7 +16,11 @@ export function writeJson(value: unknown): void {
 
 /** Extra materials files given with --materials, if any. */
 export function materialsFiles(value: unknown): string[] | undefined {
-  return Array.isArray(value) ? (value as string[]) : undefined;
+  if (!Array.isArray(value)) return undefined;
+  const files = value as string[];
+  // checked here so that the message names the flag (the loader names a file by its path, which is empty here)
+  if (files.some((f) => f.trim() === '')) throw new InputError('--materials', 'missing path', 'a materials file (JSON or YAML)');
+  return files;
 }
 
 export function readInputFile(path: string, field: string, maxBytes = MAX_INPUT_FILE_BYTES): string {

@@ -1,6 +1,7 @@
 // CLI flags of the contact inputs, generated from the parameter table (src/inputs/parameters.ts).
 import type { Command } from 'commander';
 import { Option } from './commander.js';
+import { materialsFiles } from './io.js';
 import { PARAMETERS, flagName, helpText, type ContactOptions, type OptionName } from '../inputs/parameters.js';
 
 /** Add one flag per table row (help text with the documented default, choices checked by commander). */
@@ -22,6 +23,7 @@ export function contactOptionsFrom(parsed: Record<string, unknown>, skip: readon
     const value = parsed[p.option];
     if (value !== undefined) out[p.option] = value;
   }
+  materialsFiles(out['materials']); // an empty --materials path is refused naming the flag
   return out as ContactOptions;
 }
 

@@ -14,7 +14,10 @@ Examples:
 function listOf(text: string | undefined, all: string[], field: string): string[] {
   if (text === undefined || text.trim() === '') throw new InputError(field, 'missing list', 'comma-separated names, or "all"');
   if (text.trim().toLowerCase() === 'all') return all;
-  return text.split(',').map((s) => s.trim()).filter((s) => s !== '');
+  const names = text.split(',').map((s) => s.trim());
+  // "Pt,,Au" or "Pt," is a typo, not a request for fewer rows
+  if (names.includes('')) throw new InputError(field, `empty name in the list "${text}"`, 'comma-separated names, or "all"');
+  return names;
 }
 
 function writeCsv(target: string, csv: string, force: boolean): void {

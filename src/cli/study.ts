@@ -1,6 +1,23 @@
 // `bandbend study FILE`: parameter sweeps from a study file, rows written as they complete, plus plots (src/study/command.ts).
 import type { Command } from 'commander';
+import { InputError } from '../errors.js';
 import { checkFolderPath } from '../inputs/files.js';
+
+/** Options whose value is read as a number: an empty string would read as 0 and be reported as "got 0". */
+const NUMBER_OPTIONS = [
+  ['jobs', '--jobs', '1 to 256 worker threads'],
+  ['pointTimeout', '--point-timeout', 'seconds, e.g. 300'],
+] as const;
+
+/** Empty strings are errors that name their field (issue 13): the study file, merge folders, numeric options. */
+function checkNotEmpty(file: string, dirs: readonly string[], opts: Record<string, unknown>): void {
+  if (file.trim() === '') throw new InputError('study FILE', 'missing path', 'a study file (YAML or JSON), or `merge`');
+  if (file === 'merge' && dirs.some((d) => d.trim() === '')) throw new InputError('study merge', 'missing path in the shard folders', 'the --out folders of every shard');
+  for (const [key, flag, allowed] of NUMBER_OPTIONS) {
+    const value = opts[key];
+    if (typeof value === 'string' && value.trim() === '') throw new InputError(flag, 'missing value', allowed);
+  }
+}
 
 const EXAMPLE = `
 Study file (YAML or JSON):
@@ -42,6 +59,7 @@ export function registerStudyCommand(program: Command): void {
       // loaded on use: `contact --json` must not pay for the study runner and its report
       // a bad --out path exits 2 before any work; the runner creates the folder (createFolder) once the file is read
       if (typeof opts['out'] === 'string') checkFolderPath(opts['out'], '--out');
+      checkNotEmpty(file, dirs, opts);
       const { studyCommand } = await import('../study/command.js');
       await studyCommand(file, dirs, opts);
     });

@@ -16,6 +16,7 @@ export interface StudyRow {
 
 function csvCell(v: OutputValue): string {
   if (v === null) return '';
+  if (Array.isArray(v)) return v.map((w) => w.code).join(';'); // warnings: the codes (the JSONL line has the messages)
   if (typeof v === 'boolean') return v ? 'true' : 'false';
   return String(v);
 }

@@ -246,7 +246,8 @@ async function computePoints(ctx: RunContext, plan: RunPlan, remaining: number):
   return runInWorkers(ctx, {
     jobs: Math.max(1, Math.min(plan.jobs, Math.ceil(remaining / plan.batchSize))),
     batchSize: plan.batchSize,
-    workerUrl: new URL('./worker.js', import.meta.url),
+    // '../study/': the same file from this module and from the CLI bundle's chunk in dist/bundle/ (src/cli/bundle.ts)
+    workerUrl: new URL('../study/worker.js', import.meta.url),
     pointTimeout_ms: plan.pointTimeout_s * 1000,
     warmStart: plan.warmStart,
   });

@@ -22,7 +22,7 @@ import { InputError } from '../errors.js';
 import { MAX_INPUT_FILE_BYTES, readTextFile } from '../inputs/files.js';
 import { PARAMETERS, checkLimits, closestName, parameterOf, type ContactOptions, type ParameterRow } from '../inputs/parameters.js';
 import { defaultUnitOf, parseQuantity, parseUnit, type QuantityKind } from '../inputs/units.js';
-import type { ContactResult } from '../types.js';
+import type { ContactResult, Warning } from '../types.js';
 
 /** Largest study file read, bytes (counted while reading, before parsing): the one input-file limit. */
 export const MAX_STUDY_FILE_BYTES = MAX_INPUT_FILE_BYTES;
@@ -91,7 +91,10 @@ type ScalarPaths<T> = {
       : `${K}.${ScalarPaths<NonNullable<T[K]>>}`;
 }[keyof T & string];
 
-/** Output paths a study may ask for: the scalar leaves of ContactResult, plus `warnings` (codes joined by ";"). */
+/**
+ * Output paths a study may ask for: the scalar leaves of ContactResult, plus `warnings` (in results.jsonl the same
+ * array of {code, message} as in `contact --json`; in results.csv the codes joined by ";").
+ */
 export const OUTPUT_PATHS = [
   'metal',
   'support',
@@ -218,7 +221,8 @@ export const OUTPUT_PATHS = [
 ] as const satisfies readonly (ScalarPaths<ContactResult> | 'warnings')[];
 
 export type OutputPath = (typeof OUTPUT_PATHS)[number];
-export type OutputValue = number | string | boolean | null;
+/** warnings: the {code, message} array of ContactResult (issue 13 item 7: one shape from contact, screen and study) */
+export type OutputValue = number | string | boolean | null | readonly Warning[];
 
 export const DEFAULT_OUTPUTS: readonly OutputPath[] = [
   'bandBending_eV',
@@ -236,7 +240,7 @@ export function isOutputPath(path: string): path is OutputPath {
 
 /** The value of one output of a result: null when a parent is null (e.g. no exchange) or the number is not finite. */
 export function readOutput(result: ContactResult, path: string): OutputValue {
-  if (path === 'warnings') return result.warnings.map((w) => w.code).join(';');
+  if (path === 'warnings') return result.warnings.map(({ code, message }) => ({ code, message }));
   let node: unknown = result;
   for (const key of path.split('.')) {
     if (node === null || node === undefined || typeof node !== 'object') return null;
