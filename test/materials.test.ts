@@ -125,10 +125,13 @@ describe('spot checks against published values', () => {
     // Ag 4.26 eV: polycrystalline silver, stated with the CRC Handbook 2008 table (p. 12-124) in its encyclopedia copy (read)
     expect(wf('Ag').value).toBe(4.26);
     // Pt 5.65 eV: Michaelson, J. Appl. Phys. 48, 4729 (1977), read in a public copy that attributes its table to
-    // Michaelson (the paper's table itself not read); Fe and V stay flagged fromMemory
+    // Michaelson (the paper's table itself not read)
     expect(wf('Pt').value).toBe(5.65);
     expect(wf('Pt').fromMemory).toBe(false);
-    expect(wf('Fe').fromMemory).toBe(true);
+    // Fe 4,5 eV and V 4,3 eV: table of polycrystalline work functions of the Polish encyclopedia article
+    // 'Praca wyjścia' (mirror copy read; it names no source)
+    expect([wf('Fe').value, wf('V').value]).toEqual([4.5, 4.3]);
+    expect(wf('Fe').source).toBe('plwiki-praca-wyjscia');
     // Au 5.10, Cu 4.65, W 4.55: Michaelson 1977 (same copy)
     expect([wf('Au').value, wf('Cu').value, wf('W').value]).toEqual([5.1, 4.65, 4.55]);
     // Ru 4.71, Rh 4.98: CRC Handbook 2008 single values (encyclopedia copy, as recorded in the evidence sheet)
@@ -394,7 +397,8 @@ describe('citations and provenance', () => {
     const p = provenanceOf(lib, 'metal.workFunction', pt.workFunction_eV, 'eV');
     expect(p).toMatchObject({ field: 'metal.workFunction', value: 5.65, unit: 'eV', min: 5.12, max: 5.93, origin: 'library', source: 'michaelson1977', fromMemory: false });
     // a value that is still unverified says so in its provenance
-    expect(provenanceOf(lib, 'metal.workFunction', lib.metals.get('Fe')!.workFunction_eV, 'eV').fromMemory).toBe(true);
+    // (the Re metallic radius, 137 pm from memory of Wells 1984, was not found in any copy)
+    expect(provenanceOf(lib, 'metal.metallicRadius', lib.metals.get('Re')!.metallicRadius_pm, 'pm').fromMemory).toBe(true);
     expect(p.citation).toBe('Michaelson, J. Appl. Phys. 48, 4729 (1977), doi:10.1063/1.323539');
   });
 });
