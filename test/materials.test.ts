@@ -397,8 +397,8 @@ describe('citations and provenance', () => {
     const p = provenanceOf(lib, 'metal.workFunction', pt.workFunction_eV, 'eV');
     expect(p).toMatchObject({ field: 'metal.workFunction', value: 5.65, unit: 'eV', min: 5.12, max: 5.93, origin: 'library', source: 'michaelson1977', fromMemory: false });
     // a value that is still unverified says so in its provenance
-    // (the Re metallic radius, 137 pm from memory of Wells 1984, was not found in any copy)
-    expect(provenanceOf(lib, 'metal.metallicRadius', lib.metals.get('Re')!.metallicRadius_pm, 'pm').fromMemory).toBe(true);
+    // (the Cu2O electron mass, 0.99 m0 from memory of Hodby et al. 1976: the cyclotron-resonance number was not found in any copy)
+    expect(provenanceOf(lib, 'support.electronMass', lib.supports.get('Cu2O')!.electronMass_me, 'm0').fromMemory).toBe(true);
     expect(p.citation).toBe('Michaelson, J. Appl. Phys. 48, 4729 (1977), doi:10.1063/1.323539');
   });
 });
