@@ -44,7 +44,7 @@ describe('--uncertainty samples the inputs of interface states, localised states
     const expected: [SampledField, number, number][] = [
       ['pinningFactor', 0.153, 0.293],
       ['neutralLevelAboveValence_eV', 1.9, 2.5],
-      ['localisedLevel_eV', 0.7, 1.57],
+      ['localisedLevel_eV', 0.35, 0.85], // thermal levels converted from photoemission (src/bulk/polaron.ts)
       ['interfaceLayerThickness_m', DEFAULT_LAYER_THICKNESS_RANGE_M[0], DEFAULT_LAYER_THICKNESS_RANGE_M[1]],
       ['interfaceLayerPermittivity', 1, 7.37], // 1 to the optical permittivity of the library entry
       ['sizeWorkFunctionCoefficient', 0.375, 0.5], // Seidl & Perdew, Phys. Rev. B 50, 5744 (1994): 3/8 to 1/2
