@@ -15,7 +15,7 @@ import {
 } from './interface/interfaceStates.js';
 import { PLANAR, hemisphere, particleArray, type CrossSection } from './electrostatics/geometry.js';
 import { solvePoisson, REFINE_ABOVE, type PoissonSolution } from './electrostatics/poisson.js';
-import { particleDensityOfStates_per_eV, particleWorkFunction_eV } from './derived/finiteParticle.js';
+import { idealParticleAlignment, particleDensityOfStates_per_eV, particleWorkFunction_eV } from './derived/finiteParticle.js';
 import { particleAtoms, chargingSummary, effectivePermittivity, meanSpacing_m, type ParticleAtomCount } from './derived/particle.js';
 import {
   thermionicExchangeCurrent_A_per_m2,
@@ -157,9 +157,15 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
       pinningFactorOrigin: params.pinningFactorOrigin === 'given' ? 'given' : 'empirical',
     };
   } else {
+    // ideal rule at a finite particle: its Fermi level moves by N/g_tot with its charge (src/derived/finiteParticle.ts)
+    const particle = r.barrierModel === 'ideal' ? finiteParticleTerm(r, geometry) : undefined;
+    const shift_eV = particle === undefined ? 0 : idealParticleAlignment({
+      metalWorkFunction_eV, electronAffinity_eV: s.electronAffinity_eV, bandGap_eV: s.bandGap_eV, particle,
+      fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV, spaceCharge: (v) => solveAt(v).totalCharge_C / geometry.interfaceArea_m2,
+    }).fermiLevelShift_eV;
     barrier = barrierHeight({
       model: r.barrierModel,
-      metalWorkFunction_eV: metalWorkFunction_eV,
+      metalWorkFunction_eV: metalWorkFunction_eV - shift_eV,
       electronAffinity_eV: s.electronAffinity_eV,
       bandGap_eV: s.bandGap_eV,
       opticalPermittivity: s.opticalPermittivity,

@@ -8,14 +8,21 @@ describe('classic metal–support systems from library data (examples/catalyst-s
     const r = solveContact({ metal: 'Cu', support: 'ZnO', reductionTemperature: '573 K', hydrogenToWater: 100, temperature: '523 K' });
     expect(r.pretreatment.hydrogenToWater).toBe(100);
     expect(r.donorDensity_cm3).toBeGreaterThan(0);
-    expect(r.direction).toBe('support-to-metal');
+    // the junction: bands bend up, electrons leave the reduced oxide toward the contact. The metal's net charge also
+    // counts the interface states, which Cu charges (its Fermi level, 4.65 eV below vacuum, lies above the ZnO branch
+    // point, 4.86 eV below vacuum: 2.7 eV above the VBM, Schifano et al.), so the net direction is not asserted here.
+    expect(r.bandBending_eV).toBeGreaterThan(0);
+    expect(r.interfaceStates!.electronsFromSpaceCharge).toBeGreaterThan(0);
     expect(r.cautions.some((c) => /hydrogen/i.test(c))).toBe(true);
   });
 
   it('Au on MgO: F-centre electrons go to Au (Sterrer et al., PRL 98, 096107 (2007)), negligibly in bulk equilibrium', () => {
     const r = solveContact({ metal: 'Au', support: 'MgO' });
-    expect(r.direction).toBe('support-to-metal');
-    expect(Math.abs(r.electronsPerParticle)).toBeLessThan(1e-3);
+    // the F-centre (space-charge) electrons: bands bend up, a negligible charge; the interface states at the MgO branch
+    // point (3.7 eV above the VBM, Schifano et al.) carry the metal's net charge, so the net direction is not asserted
+    expect(r.bandBending_eV).toBeGreaterThan(0);
+    expect(r.interfaceStates!.electronsFromSpaceCharge).toBeGreaterThan(0);
+    expect(Math.abs(r.interfaceStates!.electronsFromSpaceCharge)).toBeLessThan(1e-3);
   });
 
   it('Pt on ceria with defaults: not undoped, Pt loses electrons (Lykhach et al., Nat. Mater. 15, 284 (2016))', () => {

@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest';
 import {
   densityOfStatesFromSpecificHeat_per_eV_atom,
   freeElectronDensityOfStates_per_eV_atom,
+  idealParticleAlignment,
   kuboGap_eV,
   neutralParticleWorkFunction_eV,
   particleDensityOfStates_per_eV,
@@ -16,6 +17,9 @@ import {
 } from '../src/derived/finiteParticle.js';
 import { solveInterfaceAlignment, type InterfaceAlignmentInput } from '../src/interface/interfaceStates.js';
 import { CODATA2018, boltzmannPlanarCharge } from './helpers.js';
+import { solveContact } from '../src/contact.js';
+import { loadBuiltinLibrary } from '../src/materials/index.js';
+import { particleAtoms } from '../src/derived/particle.js';
 
 describe('size-dependent work function of a small metal sphere', () => {
   it('e^2/(4 pi eps0 R) = 1.440 eV at R = 1 nm; alpha = 3/8 -> +0.54 eV, alpha = 1/2 -> +0.72 eV (evidence sheet, derived from CODATA)', () => {
@@ -163,5 +167,33 @@ describe('hard bound on transferred charge', () => {
     const r = solveInterfaceAlignment(input);
     const bound = transferredChargeBound({ ...input, ...input.particle! });
     expect(r.particle!.electronsGained / bound.schottkyMottCharge).toBeCloseTo(1, 6);
+  });
+});
+
+describe('ideal (Schottky–Mott) rule at a finite particle: quantum capacitance in the alignment', () => {
+  it('a linear Q_sc = C V gives V = (W - chi - xi) / (1 + C A / (q g)) exactly (derived: Phi_B = W - N/g - chi, N = C V A / q)', () => {
+    const C = 0.05; // C/m^2 per eV of band bending (a linear test space charge, not a material)
+    for (const g of [10, 100, 1e4]) {
+      const input = alignment();
+      const r = idealParticleAlignment({ ...input, particle: { ...input.particle!, densityOfStates_per_eV: g }, spaceCharge: (v) => C * v });
+      const v = (input.metalWorkFunction_eV - input.electronAffinity_eV - input.fermiLevelBelowConduction_eV) / (1 + (C * FOOTPRINT) / (CODATA2018.q * g));
+      expect(r.electronsGained).toBeCloseTo((C * v * FOOTPRINT) / CODATA2018.q, 6);
+      expect(r.fermiLevelShift_eV).toBeCloseTo(r.electronsGained / g, 12);
+    }
+  });
+
+  it('an infinite density of states recovers the Schottky–Mott charge (transferredChargeBound, bound 1)', () => {
+    const input = alignment({ stateDensity_per_eV_m2: 0, layerThickness_m: 0, particle: { densityOfStates_per_eV: 1e12, footprintArea_m2: FOOTPRINT, interfaceArea_m2: FOOTPRINT } });
+    const r = idealParticleAlignment({ ...input, particle: input.particle! });
+    expect(r.electronsGained / transferredChargeBound({ ...input, ...input.particle! }).schottkyMottCharge).toBeCloseTo(1, 6);
+  });
+
+  it('contact: Au on CeO2, 2 nm hemisphere, ideal model: E_C(0) - E_F = W(R) - N/g_tot - chi with g_tot from the library', () => {
+    const res = solveContact({ metal: 'Au', support: 'CeO2', geometry: 'hemisphere', particleDiameter: 2, barrierModel: 'ideal' });
+    const au = loadBuiltinLibrary().metals.get('Au')!;
+    const atoms = particleAtoms({ diameter_m: 2e-9, density_g_cm3: au.density_g_cm3.value, molarMass_g_mol: au.molarMass_g_mol.value, metallicRadius_pm: au.metallicRadius_pm.value }).atoms;
+    const g = au.densityOfStatesAtFermi_per_eV_atom!.value * atoms;
+    const chi = loadBuiltinLibrary().supports.get('CeO2')!.electronAffinity_eV.value;
+    expect(res.electronBarrier_eV).toBeCloseTo(res.particleWorkFunction_eV - res.electronsPerParticle / g - chi, 6);
   });
 });

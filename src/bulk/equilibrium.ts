@@ -39,8 +39,8 @@ export interface LocalisedSpec {
   /**
    * depth of the trapping level below E_C, eV (>= 0 below the band edge; may be negative = above E_C). This is the
    * thermodynamic (0/-) level. A gap-state peak seen in photoemission (e.g. Ti3+ ~0.85 eV below E_F on reduced
-   * rutile(110)) lies deeper than it by the polaron's lattice-relaxation (Franck–Condon) energy, so it is an upper
-   * bound on the depth, not the level itself.
+   * rutile(110)) lies deeper than it by the polaron's lattice-relaxation (Franck–Condon) energy: convert it with
+   * thermalPolaronDepth_eV (src/bulk/polaron.ts; the library values are converted already).
    */
   level_eV: number;
   /** degeneracy of the occupied site relative to the empty one; default 2 (spin of one electron) */

@@ -26,7 +26,7 @@ import type { ResolvedContact } from '../inputs/contactInput.js';
 //   shape are outside this correction.
 import { K_BOLTZMANN_J_PER_K, M_ELECTRON_KG, H_PLANCK_J_S, N_AVOGADRO_PER_MOL, Q_ELEMENTARY_C, EPS0_F_PER_M } from '../constants.js';
 import { InputError, requireInRange } from '../errors.js';
-import { interfaceStateCharge_C_per_m2 } from '../interface/interfaceStates.js';
+import { interfaceStateCharge_C_per_m2, solveInterfaceAlignment, type ParticleTerm } from '../interface/interfaceStates.js';
 
 /** alpha = 3/8 for the ionisation potential of a small metal sphere (Wood 1981; from memory, verify). */
 export const WOOD_IONISATION_COEFFICIENT = 3 / 8;
@@ -203,3 +203,33 @@ export function particleWorkFunction_eV(r: Pick<ResolvedContact, 'metal' | 'geom
   return neutralParticleWorkFunction_eV(r.metal.workFunction_eV, r.particleDiameter_m / 2, alpha);
 }
 
+export interface IdealParticleInput {
+  /** W of the neutral particle (e.g. neutralParticleWorkFunction_eV), eV */
+  metalWorkFunction_eV: number;
+  electronAffinity_eV: number;
+  bandGap_eV: number;
+  /** bulk E_C - E_F of the support, eV */
+  fermiLevelBelowConduction_eV: number;
+  particle: ParticleTerm;
+  /** non-decreasing Q_sc(V), C/m^2, for band bending V in eV (one Poisson solve per call) */
+  spaceCharge: (bandBending_eV: number) => number;
+}
+
+/**
+ * Schottky–Mott rule for a finite particle: the particle's Fermi level rises by N/g_tot when it gains N electrons
+ * (quantum capacitance, Luryi 1988), so Phi_B = (W - N/g_tot) - chi with N = Q_sc(Phi_B - xi_b) A / q, solved
+ * self-consistently. This is the D_it = 0, delta = 0 limit of solveInterfaceAlignment, used for it. Returns the
+ * Fermi-level shift N/g_tot (eV, positive when the particle gained electrons) and N; the effective work function is
+ * W - shift. |N| never exceeds the Schottky–Mott charge (transferredChargeBound, bound 1).
+ */
+export function idealParticleAlignment(input: IdealParticleInput): { fermiLevelShift_eV: number; electronsGained: number } {
+  const aligned = solveInterfaceAlignment({
+    ...input,
+    stateDensity_per_eV_m2: 0,
+    neutralLevelAboveValence_eV: input.bandGap_eV / 2, // irrelevant without states
+    layerThickness_m: 0,
+    layerPermittivity: 1,
+    tolerance_eV: 1e-9,
+  });
+  return { fermiLevelShift_eV: aligned.particle!.fermiLevelShift_eV, electronsGained: aligned.particle!.electronsGained };
+}

@@ -88,7 +88,7 @@ export interface ContactOptions {
   interfaceLayerPermittivity?: QuantityInput;
   /** density of sites for localised (small-polaron) electrons, cm^-3 if bare @default library value of the support, else none */
   localisedSites?: QuantityInput;
-  /** depth of the localised-electron level below E_C @default library value of the support */
+  /** thermal (0/-) depth of the localised-electron level below E_C (a photoemission peak lies about twice as deep: src/bulk/polaron.ts) @default library value of the support */
   localisedLevel?: QuantityInput;
   /** contact geometry @default planar */
   geometry?: GeometryKind;
@@ -487,7 +487,7 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
     sampling: 'log-uniform', sampledAs: 'localisedSites_m3',
   },
   localisedLevel: {
-    flag: '--localised-level <E>', help: 'localised-electron level depth below E_C', defaultText: 'library value of the support',
+    flag: '--localised-level <E>', help: 'thermal (0/-) depth of the localised-electron level below E_C (a photoemission peak measured from E_C lies about twice as deep)', defaultText: 'library value of the support',
     ...energy(LEVEL_EV), label: 'localised level (depth below E_C)', library: (r) => r.support?.localisedLevel_eV,
     sampling: 'uniform', sampledAs: 'localisedLevel_eV',
     when: { test: (c) => positive(c, 'localisedSites'), text: 'with --localised-sites' },
