@@ -40,7 +40,8 @@ const common = {
 export const BarrierRowSchema = z
   .object({
     ...common,
-    quantity: z.literal('electronBarrier_eV'),
+    /** electron barrier E_C(0) - E_F, or, for a p-type support, the hole barrier E_F - E_V(0) the paper reports */
+    quantity: z.enum(['electronBarrier_eV', 'holeBarrier_eV']),
     value: num,
     uncertainty: num.nonnegative().nullable(),
     range: z.tuple([num, num]).nullable(),
@@ -307,6 +308,8 @@ export interface ValidationRow {
   verified: boolean;
   /** measured value in the row's quantity (barrier eV; electrons per particle, null if only sign/range; final band bending eV) */
   measured: number | null;
+  /** barrier rows: 'holeBarrier_eV' when the paper reports the hole barrier of a p-type support (absent: electron barrier) */
+  quantity?: 'holeBarrier_eV';
   /** measured sign or range where that is what the paper gives */
   measuredSign?: ChargeSign;
   measuredRange?: [number, number] | null;
@@ -390,6 +393,13 @@ function asResult(x: unknown): ContactResult {
 
 type AnyRow = BarrierRow | ChargeRow | BandBendingRow;
 
+/** The barrier a row measured: the electron barrier, or the hole barrier of a contact whose majority carriers are holes. */
+export function predictedBarrier_eV(result: ContactResult, quantity: BarrierRow['quantity']): number {
+  if (quantity === 'electronBarrier_eV') return result.electronBarrier_eV;
+  if (result.barrierCarrier !== 'hole') throw new RangeError('hole barrier measured, but the model gives an electron barrier for this support (not p-type)');
+  return result.barrierHeight_eV;
+}
+
 /**
  * Predict one row: with its support state, falling back to library defaults (and saying so) when the library has
  * no reduction data for the support; an excluded row is not solved.
@@ -435,8 +445,8 @@ export function runValidation(options: ValidationOptions = {}): ValidationResult
   const rows: ValidationRow[] = [];
 
   for (const r of gallery.barriers.filter(keep)) {
-    const row = { ...rowHead('barrier', r), measured: r.value };
-    rows.push(compareRow(row, r, usesState, (st) => asResult(solve(barrierOptions(r, model, st))).electronBarrier_eV));
+    const row = { ...rowHead('barrier', r), measured: r.value, ...(r.quantity === 'holeBarrier_eV' ? { quantity: r.quantity } : {}) };
+    rows.push(compareRow(row, r, usesState, (st) => predictedBarrier_eV(asResult(solve(barrierOptions(r, model, st))), r.quantity)));
   }
   for (const r of gallery.charges.filter(keep)) {
     const row = { ...rowHead('charge', r), measured: r.value, measuredSign: r.sign, measuredRange: r.magnitudeRange };
@@ -463,7 +473,7 @@ export function summarise(rows: readonly ValidationRow[], model: GalleryModel): 
 
   const barrierRows = ok('barrier');
   const paired = (rs: ValidationRow[]) =>
-    pairMeans(rs.map((r) => ({ pair: `${metalOf(r)}|${supportOf(r)}`, predicted: r.predicted!, measured: r.measured! })));
+    pairMeans(rs.map((r) => ({ pair: `${metalOf(r)}|${supportOf(r)}${r.quantity === 'holeBarrier_eV' ? '|hole' : ''}`, predicted: r.predicted!, measured: r.measured! })));
   const pairs = paired(barrierRows);
   const oxides = new Set(barrierRows.map(supportOf));
 
