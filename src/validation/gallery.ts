@@ -330,6 +330,8 @@ export interface BarrierStatistics {
   rowMeanAbsoluteError_eV: number | null;
   /** the pair statistic restricted to rows with verified: true */
   verifiedMeanAbsoluteError_eV: number | null;
+  /** the pair statistic per oxide (library key, else the paper's name) */
+  perOxide?: Record<string, { pairs: number; meanAbsoluteError_eV: number | null }>;
   failed: number;
 }
 
@@ -495,6 +497,12 @@ export function summarise(rows: readonly ValidationRow[], model: GalleryModel): 
       meanAbsoluteError_eV: meanAbsoluteError(pairs),
       rowMeanAbsoluteError_eV: meanAbsoluteError(barrierRows.map((r) => ({ predicted: r.predicted!, measured: r.measured! }))),
       verifiedMeanAbsoluteError_eV: meanAbsoluteError(paired(barrierRows.filter((r) => r.verified))),
+      perOxide: Object.fromEntries(
+        [...oxides].sort().map((ox) => {
+          const p = paired(barrierRows.filter((r) => supportOf(r) === ox));
+          return [ox, { pairs: p.length, meanAbsoluteError_eV: meanAbsoluteError(p) }];
+        }),
+      ),
       failed: failed('barrier'),
     },
     charge: {
