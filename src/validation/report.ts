@@ -27,7 +27,7 @@ const UNIT: Record<ValidationRow['kind'], string> = { barrier: 'eV', charge: 'e/
 
 /** Plain-text table of the rows (one line each) followed by the statistics. */
 export function validationTable(result: ValidationResult): string {
-  const head = ['kind', 'id', 'metal/support', 'measured', 'predicted', 'unit', 'verified', 'status'];
+  const head = ['kind', 'id', 'metal/support', 'measured', 'predicted', 'unit', 'verified', 'support state', 'status'];
   const lines = result.rows.map((r) => [
     r.kind,
     r.id,
@@ -36,6 +36,7 @@ export function validationTable(result: ValidationResult): string {
     r.predicted === null ? '-' : formatNumber(r.predicted),
     UNIT[r.kind],
     r.verified ? 'yes' : 'no (memory)',
+    r.supportState?.mapping ?? '-',
     r.status === 'ok' ? 'ok' : `${r.status}: ${r.reason ?? ''}`,
   ]);
   const widths = head.map((h, i) => Math.min(48, Math.max(h.length, ...lines.map((l) => l[i]!.length))));
