@@ -95,7 +95,7 @@ describe('bandbend validate --json', () => {
       // barrier: mean over metal/support pairs of |mean prediction - mean measurement|
       const groups = new Map<string, Row[]>();
       for (const r of ok('barrier')) {
-        const key = `${r.metalKey ?? r.metal}|${r.supportKey ?? r.support}`;
+        const key = `${r.metalKey ?? r.metal}|${r.supportKey ?? r.support}${r.quantity === 'holeBarrier_eV' ? '|hole' : ''}`;
         groups.set(key, [...(groups.get(key) ?? []), r]);
       }
       const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / xs.length;
@@ -138,6 +138,16 @@ describe('bandbend validate --json', () => {
 });
 
 describe('bandbend validate: text, report, bad input', () => {
+  it('--ignore-support-state gives every compared row library defaults; by default some rows carry their support state', () => {
+    // the support state of each row is read from the paper (validation/README.md, "Support state")
+    const mapped = out.models[0]!.rows.filter((r) => r.status === 'ok' && r.supportState && r.supportState.mapping !== 'library-defaults');
+    expect(mapped.length).toBeGreaterThan(0);
+    const r = bandbend(['validate', '--model', 'ideal', '--ignore-support-state', '--json']);
+    expect(r.code, show(r)).toBe(0);
+    const rows = (JSON.parse(r.stdout) as Out).models[0]!.rows.filter((x) => x.status === 'ok');
+    for (const x of rows) expect(x.supportState?.mapping, x.id).toBe('library-defaults');
+  });
+
   it('prints a table of the statistics with one column per model', () => {
     const r = bandbend(['validate', '--model', 'ideal']);
     expect(r.code, show(r)).toBe(0);

@@ -16,7 +16,8 @@ Examples:
   bandbend validate
   bandbend validate --model pinned --json
   bandbend validate --model ideal default --report out/validation --force
-  bandbend validate --verified-only`;
+  bandbend validate --verified-only
+  bandbend validate --ignore-support-state`;
 
 /** The values the parameter table allows for barrierModel, plus 'default'. */
 export function allowedModels(): string[] {
@@ -56,6 +57,11 @@ function pct(x: number | null, of: number): string {
   return x === null ? 'n/a' : `${Math.round(x * 100)}% of ${of}`;
 }
 
+function supportStateCounts(s: ValidationStatistics): string {
+  const c = s.supportStates ?? {};
+  return `${c.paper ?? 0} / ${c['paper+convention'] ?? 0} / ${c.convention ?? 0} / ${c['library-defaults'] ?? 0}`;
+}
+
 /** The statistics of several models side by side, one statistic a line. */
 function statisticsTable(runs: readonly ModelRun[], num: (x: number | null) => string): string {
   const eV = (x: number | null) => (x === null ? 'n/a' : `${num(x)} eV`);
@@ -67,6 +73,7 @@ function statisticsTable(runs: readonly ModelRun[], num: (x: number | null) => s
     ['charge: sign agreement', (s) => pct(s.charge.signAgreement, s.charge.signRows)],
     ['charge: within factor 3 of magnitude', (s) => pct(s.charge.withinFactor3, s.charge.magnitudeRows)],
     ['band bending (photoemission) MAE', (s) => `${eV(s.bandBending.meanAbsoluteError_eV)} (${s.bandBending.rows} rows)`],
+    ['support state: paper / +convention / convention / defaults', (s) => supportStateCounts(s)],
     ['failed rows: barrier / charge / band bending', (s) => `${s.barrier.failed} / ${s.charge.failed} / ${s.bandBending.failed}`],
   ];
   const head = ['statistic', ...runs.map(label)];
@@ -87,12 +94,13 @@ async function runValidate(opts: Record<string, unknown>): Promise<void> {
     await prepareReportDir(report, opts['force'] === true);
   }
   const includeUnverified = opts['verifiedOnly'] !== true;
+  const supportState = opts['ignoreSupportState'] !== true;
   const runs: ModelRun[] = models.map((model) => {
     if (model !== DEFAULT_MODEL) {
-      return { model, barrierModel: model, result: runValidation({ model: model as BarrierModel, includeUnverified }) };
+      return { model, barrierModel: model, result: runValidation({ model: model as BarrierModel, includeUnverified, supportState }) };
     }
     // 'default' leaves barrierModel unset in every contact (src/validation/gallery.ts), so the library default applies
-    return { model, barrierModel: null, result: runValidation({ model: DEFAULT_MODEL, includeUnverified }) };
+    return { model, barrierModel: null, result: runValidation({ model: DEFAULT_MODEL, includeUnverified, supportState }) };
   });
 
   let written: string[] = [];
@@ -131,6 +139,7 @@ export function registerValidate(program: Command): void {
     .description('compare predictions with the published measurements of the validation gallery')
     .option('--model <NAME...>', `barrier model(s) to compare: ${allowedModels().join(', ')} ('default' leaves it unset)`, ['ideal', DEFAULT_MODEL])
     .option('--verified-only', 'use only gallery rows checked against a found copy of the source')
+    .option('--ignore-support-state', "give every row library defaults instead of the measurement's support state (reduced, oxidised, stated donors)")
     .option('--json', 'print statistics and rows as one JSON object')
     .option('--report <DIR>', 'write per-model tables, JSON and predicted-vs-measured figures to DIR/<model>/')
     .option('--force', 'write into an existing non-empty report folder')

@@ -14,6 +14,7 @@ import {
   observedBandBending_eV,
   seahDenchImfpCompound_m,
 } from '../derived/photoemission.js';
+import { SupportStateSchema, isMissingReductionData, supportStateInputs, unmappedState, type SupportStateInputs, type SupportStateMapping } from './supportState.js';
 
 // ------------------------------------------------------------------------------------------ schemas
 
@@ -39,12 +40,19 @@ const common = {
 export const BarrierRowSchema = z
   .object({
     ...common,
-    quantity: z.literal('electronBarrier_eV'),
+    /** electron barrier E_C(0) - E_F, or, for a p-type support, the hole barrier E_F - E_V(0) the paper reports */
+    quantity: z.enum(['electronBarrier_eV', 'holeBarrier_eV']),
     value: num,
     uncertainty: num.nonnegative().nullable(),
     range: z.tuple([num, num]).nullable(),
     conditions: z
-      .object({ temperature_K: num.positive(), donors_cm3: num.positive().nullable(), surface: z.string().nullable().optional() })
+      .object({
+        temperature_K: num.positive(),
+        donors_cm3: num.positive().nullable(),
+        surface: z.string().nullable().optional(),
+        /** structured support state read from the paper (src/validation/supportState.ts) */
+        pretreatment: SupportStateSchema.nullable().optional(),
+      })
       .strict(),
   })
   .strict();
@@ -66,6 +74,10 @@ export const ChargeRowSchema = z
         particleDiameterNote: z.string().nullable().optional(),
         atoms: num.positive().nullable(),
         supportState: z.string().nullable().optional(),
+        /** donor density stated by the paper, cm^-3 */
+        donors_cm3: num.positive().nullable().optional(),
+        /** structured support state read from the paper (src/validation/supportState.ts) */
+        pretreatment: SupportStateSchema.nullable().optional(),
       })
       .strict(),
   })
@@ -97,6 +109,8 @@ export const BandBendingRowSchema = z
         donors_cm3: num.positive().nullable(),
         surface: z.string().nullable().optional(),
         coverage: z.string().nullable().optional(),
+        /** structured support state read from the paper (src/validation/supportState.ts) */
+        pretreatment: SupportStateSchema.nullable().optional(),
       })
       .strict(),
   })
@@ -175,26 +189,28 @@ function base(row: { metalKey: string | null; supportKey: string | null }, T: nu
   };
 }
 
-/** Planar contact at the measured temperature and, where the paper gives it, donor density (cm^-3). */
-export function barrierOptions(row: BarrierRow, model: ModelChoice): Record<string, unknown> {
-  const o: Record<string, unknown> = { ...base(row, row.conditions.temperature_K, model), geometry: 'planar' };
-  if (row.conditions.donors_cm3 !== null) o.donors = row.conditions.donors_cm3;
-  return o;
+/** The contact inputs of a row's support state (stated donors, pretreatment, or the convention); see supportState.ts. */
+export function rowSupportState(row: BarrierRow | ChargeRow | BandBendingRow): SupportStateInputs {
+  return supportStateInputs(row.conditions.pretreatment, row.conditions.donors_cm3);
 }
 
-/** Hemispherical particle of the measured diameter (or the default), library donor density. */
-export function chargeOptions(row: ChargeRow, model: ModelChoice): Record<string, unknown> {
+/** Planar contact at the measured temperature with the row's support state (stated donors, pretreatment). */
+export function barrierOptions(row: BarrierRow, model: ModelChoice, state: SupportStateInputs = rowSupportState(row)): Record<string, unknown> {
+  return { ...base(row, row.conditions.temperature_K, model), geometry: 'planar', ...state.options };
+}
+
+/** Hemispherical particle of the measured diameter (or the default) with the row's support state. */
+export function chargeOptions(row: ChargeRow, model: ModelChoice, state: SupportStateInputs = rowSupportState(row)): Record<string, unknown> {
   return {
     ...base(row, row.conditions.temperature_K, model),
     geometry: 'hemisphere',
     particleDiameter: row.conditions.particleDiameter_nm ?? DEFAULT_PARTICLE_DIAMETER_NM,
+    ...state.options,
   };
 }
 
-export function bandBendingOptions(row: BandBendingRow, model: ModelChoice): Record<string, unknown> {
-  const o: Record<string, unknown> = { ...base(row, row.conditions.temperature_K, model), geometry: 'planar' };
-  if (row.conditions.donors_cm3 !== null) o.donors = row.conditions.donors_cm3;
-  return o;
+export function bandBendingOptions(row: BandBendingRow, model: ModelChoice, state: SupportStateInputs = rowSupportState(row)): Record<string, unknown> {
+  return { ...base(row, row.conditions.temperature_K, model), geometry: 'planar', ...state.options };
 }
 
 /** Information depth of the row's core level: Seah-Dench IMFP at E_kin = h nu - E_B, m. */
@@ -292,12 +308,16 @@ export interface ValidationRow {
   verified: boolean;
   /** measured value in the row's quantity (barrier eV; electrons per particle, null if only sign/range; final band bending eV) */
   measured: number | null;
+  /** barrier rows: 'holeBarrier_eV' when the paper reports the hole barrier of a p-type support (absent: electron barrier) */
+  quantity?: 'holeBarrier_eV';
   /** measured sign or range where that is what the paper gives */
   measuredSign?: ChargeSign;
   measuredRange?: [number, number] | null;
   predicted: number | null;
   status: RowStatus;
   reason?: string;
+  /** how the measurement's support state reached the model (absent: not compared) */
+  supportState?: { mapping: SupportStateMapping; inputs: Record<string, unknown>; note: string };
 }
 
 export interface BarrierStatistics {
@@ -310,6 +330,8 @@ export interface BarrierStatistics {
   rowMeanAbsoluteError_eV: number | null;
   /** the pair statistic restricted to rows with verified: true */
   verifiedMeanAbsoluteError_eV: number | null;
+  /** the pair statistic per oxide (library key, else the paper's name) */
+  perOxide?: Record<string, { pairs: number; meanAbsoluteError_eV: number | null }>;
   failed: number;
 }
 
@@ -330,6 +352,8 @@ export interface BandBendingStatistics {
 
 export interface ValidationStatistics {
   model: GalleryModel;
+  /** compared rows by how their support state reached the model (supportState.ts) */
+  supportStates?: Partial<Record<SupportStateMapping, number>>;
   barrier: BarrierStatistics;
   charge: ChargeStatistics;
   bandBending: BandBendingStatistics;
@@ -351,20 +375,66 @@ export interface ValidationOptions {
   galleryDir?: string;
   /** include rows with verified: false (default true) */
   includeUnverified?: boolean;
+  /** pass each row's support state (stated donors, pretreatment) to the model (default true); false: library defaults for all */
+  supportState?: boolean;
 }
 
-function tryNumber(f: () => number): { value: number } | { error: string } {
+function tryNumber(f: () => number): { value: number } | { error: string; cause?: unknown } {
   try {
     const v = f();
     if (!Number.isFinite(v)) return { error: 'the solver returned a non-finite value' };
     return { value: v };
   } catch (e) {
-    return { error: e instanceof Error ? e.message : String(e) };
+    return { error: e instanceof Error ? e.message : String(e), cause: e };
   }
 }
 
 function asResult(x: unknown): ContactResult {
   return x as ContactResult;
+}
+
+type AnyRow = BarrierRow | ChargeRow | BandBendingRow;
+
+/** The barrier a row measured: the electron barrier, or the hole barrier of a contact whose majority carriers are holes. */
+export function predictedBarrier_eV(result: ContactResult, quantity: BarrierRow['quantity']): number {
+  if (quantity === 'electronBarrier_eV') return result.electronBarrier_eV;
+  if (result.barrierCarrier !== 'hole') throw new RangeError('hole barrier measured, but the model gives an electron barrier for this support (not p-type)');
+  return result.barrierHeight_eV;
+}
+
+/**
+ * Predict one row: with its support state, falling back to library defaults (and saying so) when the library has
+ * no reduction data for the support; an excluded row is not solved.
+ */
+function compareRow(
+  row: ValidationRow,
+  source: AnyRow,
+  usesState: boolean,
+  predict: (state: SupportStateInputs) => number,
+): ValidationRow {
+  const why = excludedReason(source);
+  if (why) return Object.assign(row, { status: 'excluded', reason: why });
+  let state = usesState ? rowSupportState(source) : unmappedState(source.support, 'support states switched off');
+  let p = tryNumber(() => predict(state));
+  if ('error' in p && state.mapping !== 'library-defaults' && p.cause !== undefined && isMissingReductionData(p.cause)) {
+    state = unmappedState(source.supportKey ?? source.support, 'no reduction data in the library');
+    p = tryNumber(() => predict(state));
+  }
+  row.supportState = { mapping: state.mapping, inputs: state.options, note: state.note };
+  if ('value' in p) row.predicted = p.value;
+  else Object.assign(row, { status: 'failed', reason: p.error });
+  return row;
+}
+
+function excludedReason(r: { inStatistics: boolean; metalKey: string | null; supportKey: string | null }): string | undefined {
+  if (!r.inStatistics) return 'kept for the record, outside the comparison (see the row note)';
+  if (r.metalKey === null) return 'metal not in the library';
+  if (r.supportKey === null) return 'support not in the library';
+  return undefined;
+}
+
+function rowHead(kind: ValidationRow['kind'], r: AnyRow): ValidationRow {
+  return { kind, id: r.id, metal: r.metal, support: r.support, metalKey: r.metalKey, supportKey: r.supportKey, method: r.method, citation: r.citation, verified: r.verified, measured: null, predicted: null, status: 'ok' };
 }
 
 /** Run every gallery row through the solver and summarise. */
@@ -373,52 +443,25 @@ export function runValidation(options: ValidationOptions = {}): ValidationResult
   const solve: SolveFunction = options.solve ?? ((o) => solveContact(o as Parameters<typeof solveContact>[0]));
   const gallery = loadGallery(options.galleryDir);
   const keep = (r: { verified: boolean }) => options.includeUnverified !== false || r.verified;
+  const usesState = options.supportState !== false;
   const rows: ValidationRow[] = [];
 
-  const excludedReason = (r: { inStatistics: boolean; metalKey: string | null; supportKey: string | null }) =>
-    !r.inStatistics ? 'kept for the record, outside the comparison (see the row note)' : r.metalKey === null ? 'metal not in the library' : r.supportKey === null ? 'support not in the library' : undefined;
-
   for (const r of gallery.barriers.filter(keep)) {
-    const row: ValidationRow = { kind: 'barrier', id: r.id, metal: r.metal, support: r.support, metalKey: r.metalKey, supportKey: r.supportKey, method: r.method, citation: r.citation, verified: r.verified, measured: r.value, predicted: null, status: 'ok' };
-    const why = excludedReason(r);
-    if (why) Object.assign(row, { status: 'excluded', reason: why });
-    else {
-      const p = tryNumber(() => asResult(solve(barrierOptions(r, model))).electronBarrier_eV);
-      if ('value' in p) row.predicted = p.value;
-      else Object.assign(row, { status: 'failed', reason: p.error });
-    }
-    rows.push(row);
+    const row = { ...rowHead('barrier', r), measured: r.value, ...(r.quantity === 'holeBarrier_eV' ? { quantity: r.quantity } : {}) };
+    rows.push(compareRow(row, r, usesState, (st) => predictedBarrier_eV(asResult(solve(barrierOptions(r, model, st))), r.quantity)));
   }
   for (const r of gallery.charges.filter(keep)) {
-    const row: ValidationRow = {
-      kind: 'charge', id: r.id, metal: r.metal, support: r.support, metalKey: r.metalKey, supportKey: r.supportKey, method: r.method, citation: r.citation, verified: r.verified,
-      measured: r.value, measuredSign: r.sign, measuredRange: r.magnitudeRange, predicted: null, status: 'ok',
-    };
-    const why = excludedReason(r);
-    if (why) Object.assign(row, { status: 'excluded', reason: why });
-    else {
-      const p = tryNumber(() => asResult(solve(chargeOptions(r, model))).electronsPerParticle);
-      if ('value' in p) row.predicted = p.value;
-      else Object.assign(row, { status: 'failed', reason: p.error });
-    }
-    rows.push(row);
+    const row = { ...rowHead('charge', r), measured: r.value, measuredSign: r.sign, measuredRange: r.magnitudeRange };
+    rows.push(compareRow(row, r, usesState, (st) => asResult(solve(chargeOptions(r, model, st))).electronsPerParticle));
   }
   for (const r of gallery.bandBending.filter(keep)) {
-    const row: ValidationRow = {
-      kind: 'bandBending', id: r.id, metal: r.metal, support: r.support, metalKey: r.metalKey, supportKey: r.supportKey, method: r.method, citation: r.citation, verified: r.verified,
-      measured: measuredFinalBandBending_eV(r), predicted: null, status: 'ok',
-    };
-    const why = excludedReason(r);
-    if (why) Object.assign(row, { status: 'excluded', reason: why });
-    else {
-      const p = tryNumber(() => {
-        const { x_m, bandBending_eV } = bandBendingProfile(asResult(solve(bandBendingOptions(r, model))));
+    const row = { ...rowHead('bandBending', r), measured: measuredFinalBandBending_eV(r) };
+    rows.push(
+      compareRow(row, r, usesState, (st) => {
+        const { x_m, bandBending_eV } = bandBendingProfile(asResult(solve(bandBendingOptions(r, model, st))));
         return observedBandBending_eV(x_m, bandBending_eV, rowImfp_m(r), r.emissionAngle_deg);
-      });
-      if ('value' in p) row.predicted = p.value;
-      else Object.assign(row, { status: 'failed', reason: p.error });
-    }
-    rows.push(row);
+      }),
+    );
   }
   return { rows, statistics: summarise(rows, model.barrierModel) };
 }
@@ -432,7 +475,7 @@ export function summarise(rows: readonly ValidationRow[], model: GalleryModel): 
 
   const barrierRows = ok('barrier');
   const paired = (rs: ValidationRow[]) =>
-    pairMeans(rs.map((r) => ({ pair: `${metalOf(r)}|${supportOf(r)}`, predicted: r.predicted!, measured: r.measured! })));
+    pairMeans(rs.map((r) => ({ pair: `${metalOf(r)}|${supportOf(r)}${r.quantity === 'holeBarrier_eV' ? '|hole' : ''}`, predicted: r.predicted!, measured: r.measured! })));
   const pairs = paired(barrierRows);
   const oxides = new Set(barrierRows.map(supportOf));
 
@@ -441,8 +484,12 @@ export function summarise(rows: readonly ValidationRow[], model: GalleryModel): 
   const magItems = chargeRows.filter((r) => r.measuredRange).map((r) => ({ predicted: r.predicted!, range: r.measuredRange! }));
   const bbRows = ok('bandBending');
 
+  const supportStates: Partial<Record<SupportStateMapping, number>> = {};
+  for (const r of rows) if (r.status === 'ok' && r.supportState) supportStates[r.supportState.mapping] = (supportStates[r.supportState.mapping] ?? 0) + 1;
+
   return {
     model,
+    supportStates,
     barrier: {
       rows: barrierRows.length,
       pairs: pairs.length,
@@ -450,6 +497,12 @@ export function summarise(rows: readonly ValidationRow[], model: GalleryModel): 
       meanAbsoluteError_eV: meanAbsoluteError(pairs),
       rowMeanAbsoluteError_eV: meanAbsoluteError(barrierRows.map((r) => ({ predicted: r.predicted!, measured: r.measured! }))),
       verifiedMeanAbsoluteError_eV: meanAbsoluteError(paired(barrierRows.filter((r) => r.verified))),
+      perOxide: Object.fromEntries(
+        [...oxides].sort().map((ox) => {
+          const p = paired(barrierRows.filter((r) => supportOf(r) === ox));
+          return [ox, { pairs: p.length, meanAbsoluteError_eV: meanAbsoluteError(p) }];
+        }),
+      ),
       failed: failed('barrier'),
     },
     charge: {

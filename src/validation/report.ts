@@ -27,7 +27,7 @@ const UNIT: Record<ValidationRow['kind'], string> = { barrier: 'eV', charge: 'e/
 
 /** Plain-text table of the rows (one line each) followed by the statistics. */
 export function validationTable(result: ValidationResult): string {
-  const head = ['kind', 'id', 'metal/support', 'measured', 'predicted', 'unit', 'verified', 'status'];
+  const head = ['kind', 'id', 'metal/support', 'measured', 'predicted', 'unit', 'verified', 'support state', 'status'];
   const lines = result.rows.map((r) => [
     r.kind,
     r.id,
@@ -36,6 +36,7 @@ export function validationTable(result: ValidationResult): string {
     r.predicted === null ? '-' : formatNumber(r.predicted),
     UNIT[r.kind],
     r.verified ? 'yes' : 'no (memory)',
+    r.supportState?.mapping ?? '-',
     r.status === 'ok' ? 'ok' : `${r.status}: ${r.reason ?? ''}`,
   ]);
   const widths = head.map((h, i) => Math.min(48, Math.max(h.length, ...lines.map((l) => l[i]!.length))));
@@ -56,6 +57,7 @@ export function statisticsText(s: ValidationStatistics): string {
     `barrier heights: mean absolute error ${formatNumber(b.meanAbsoluteError_eV)} eV over ${b.pairs} metal/oxide pairs on ${b.oxides} oxides ` +
       `(each pair: mean of its measurements; ${b.rows} rows, per-row MAE ${formatNumber(b.rowMeanAbsoluteError_eV)} eV, ` +
       `verified rows only ${formatNumber(b.verifiedMeanAbsoluteError_eV)} eV; ${b.failed} failed)`,
+    `barrier MAE per oxide: ${Object.entries(b.perOxide ?? {}).map(([ox, v]) => `${ox} ${formatNumber(v.meanAbsoluteError_eV)} eV (${v.pairs})`).join(', ')}`,
     `particle charge: sign agrees for ${pct(c.signAgreement)} of ${c.signRows} rows; within a factor of 3 of the measured magnitude for ` +
       `${pct(c.withinFactor3)} of ${c.magnitudeRows} rows (${c.failed} failed)`,
     `band bending seen by photoemission: mean absolute error ${formatNumber(s.bandBending.meanAbsoluteError_eV)} eV over ${s.bandBending.rows} rows (${s.bandBending.failed} failed)`,
