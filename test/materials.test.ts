@@ -53,6 +53,17 @@ describe('built-in library: schema and provenance', () => {
     expect(lib.supports.size).toBeGreaterThanOrEqual(20);
   });
 
+  // The pinned model's neutral level below vacuum and the interface-state model's neutrality level above E_V are
+  // one quantity: Phi_CNL = chi + E_g - E_CNL (Cowley & Sze, J. Appl. Phys. 36, 3212 (1965), energy reference only).
+  // The stored copies had drifted after the affinities and gaps were re-read (Al2O3 4.3 vs 4.55 eV).
+  test('the stored neutral level equals affinity + gap - neutrality level above E_V wherever both exist', () => {
+    for (const [name, s] of lib.supports) {
+      if (s.neutralLevel_eV === undefined || s.chargeNeutralityAboveValence_eV === undefined) continue;
+      const derived = s.electronAffinity_eV.value + s.bandGap_eV.value - s.chargeNeutralityAboveValence_eV.value;
+      expect(s.neutralLevel_eV.value, name).toBeCloseTo(derived, 2);
+    }
+  });
+
   test('the metals and supports the brief asks for are present', () => {
     for (const m of ['Pt', 'Pd', 'Rh', 'Ru', 'Ir', 'Os', 'Au', 'Ag', 'Cu', 'Ni', 'Co', 'Fe', 'Re', 'Mo', 'W', 'Zn', 'Sn', 'Al', 'Ti', 'Cr']) {
       expect(lib.metals.has(m), m).toBe(true);
