@@ -222,18 +222,22 @@ describe('exchange current through the computed barrier', () => {
   });
 });
 
+/** A 3.3 eV gap support with single donors only (m_e 0.3, m_h 1): the fixture of the Q(V) checks below. */
+function donorOnlySupport(temperature_K: number, donors_m3: number, statistics: 'boltzmann' | 'fermi-dirac') {
+  return {
+    temperature_K,
+    bandGap_eV: 3.3,
+    electronMass_me: 0.3,
+    holeMass_me: 1,
+    donors: { density_m3: donors_m3, kind: 'single' as const },
+    acceptors: { density_m3: 0 },
+    statistics,
+  };
+}
+
 describe('planar charge of the band bending (the Q(V) of the relaxation)', () => {
   it('matches the closed form (Boltzmann, fully ionised donors; Sze & Ng, 3rd ed., ch. 4) to 1e-9, on and off its piece grid, in depletion and accumulation, called in any order', () => {
-    const s = {
-      temperature_K: 300,
-      bandGap_eV: 3.3,
-      electronMass_me: 0.3,
-      holeMass_me: 1,
-      donors: { density_m3: 1e23, kind: 'single' as const },
-      acceptors: { density_m3: 0 },
-      statistics: 'boltzmann' as const,
-    };
-    const model = makeChargeModel(s);
+    const model = makeChargeModel(donorOnlySupport(300, 1e23, 'boltzmann'));
     const bulk = solveBulkNeutrality(model);
     const q = planarChargeOfBending(model, bulk.reducedFermiLevel, 8.5, 300);
     const kT = model.kT_eV;
@@ -256,16 +260,7 @@ describe('relaxation time to 99% of the equilibrium charge', () => {
   });
 
   it('agrees with a time-domain RK4 integration of dQ/dt = J(V_eq - V(Q)) within 0.5% (Boltzmann planar depletion, closed-form Q(V))', () => {
-    const s = {
-      temperature_K: 300,
-      bandGap_eV: 3.3,
-      electronMass_me: 0.3,
-      holeMass_me: 1,
-      donors: { density_m3: 1e23, kind: 'single' as const },
-      acceptors: { density_m3: 0 },
-      statistics: 'boltzmann' as const,
-    };
-    const model = makeChargeModel(s);
+    const model = makeChargeModel(donorOnlySupport(300, 1e23, 'boltzmann'));
     const bulk = solveBulkNeutrality(model);
     const eps = 8.5;
     const kT = model.kT_eV;
@@ -315,16 +310,7 @@ describe('relaxation time to 99% of the equilibrium charge', () => {
   });
 
   it('is far shorter than |Q|/J0 for a depletion contact (issue 10: 28-79x)', () => {
-    const s = {
-      temperature_K: 473,
-      bandGap_eV: 3.3,
-      electronMass_me: 0.3,
-      holeMass_me: 1,
-      donors: { density_m3: 1e24, kind: 'single' as const },
-      acceptors: { density_m3: 0 },
-      statistics: 'fermi-dirac' as const,
-    };
-    const model = makeChargeModel(s);
+    const model = makeChargeModel(donorOnlySupport(473, 1e24, 'fermi-dirac'));
     const bulk = solveBulkNeutrality(model);
     const q = planarChargeOfBending(model, bulk.reducedFermiLevel, 8.5, 473);
     const out = relaxationTime99_s({ equilibriumBending_eV: 0.8, chargeOfBending: q, log10ExchangeCurrent_A_per_m2: 0, temperature_K: 473 });
