@@ -9,7 +9,7 @@ import { formatNumber } from '../output/format.js';
 import { parseQuantity } from './units.js';
 import { frozenInDonorDensity, oxygenPressureFromHydrogenWater, vacancyDonorDensity } from './pretreatment.js';
 import type { VacancySource } from '../bulk/atmosphere.js';
-import { NO_DEFECTS, atmosphereDonors, overlayerDonors, type DefectDonors } from './defectInputs.js';
+import { NO_DEFECTS, atmosphereDonors, overlayerDonors, reductionThermo, required, type DefectDonors } from './defectInputs.js';
 import {
   PARAMETERS,
   OPTION_NAMES,
@@ -327,12 +327,6 @@ function electronAffinityFromFormula(c: Resolution): number | undefined {
   return estimate.electronAffinity_eV;
 }
 
-function required(c: Resolution, option: OptionName, hint: string): number {
-  const v = c.num(option);
-  if (v === undefined) throw new InputError(flagName(row(option)), 'missing', hint);
-  return v;
-}
-
 /** Donors from the defect chemistry: an overlayer's own vacancies, a reaction atmosphere (after a reduction), or a reduction alone. */
 function defectDonors(c: Resolution): number {
   const adopt = (d: DefectDonors): number => {
@@ -385,14 +379,7 @@ function pretreatmentInfo(c: Resolution): PretreatmentInfo {
       note: `water-formation equilibrium, Delta_f G(H2O,g) = ${po2.waterGibbsFormation_kJ_mol.toFixed(2)} kJ/mol at ${equilibrationTemperature_K} K`,
     });
   }
-  const name = c.records.support?.name ?? 'this support';
-  const vacancyInput = {
-    enthalpy_eV: required(c, 'reductionEnthalpy', `an energy per vacancy (the library has no reduction data for ${name})`),
-    entropy_kB: required(c, 'reductionEntropy', 'an entropy per vacancy in units of k_B'),
-    oxygenSites_cm3: required(c, 'oxygenSites', 'a density of oxygen lattice sites, e.g. "5e22 cm^-3"') * 1e-6,
-    temperature_K: equilibrationTemperature_K,
-    oxygenPressure_bar,
-  };
+  const vacancyInput = { ...reductionThermo(c), temperature_K: equilibrationTemperature_K, oxygenPressure_bar };
   const result = frozen ? frozenInDonorDensity({ reduction: vacancyInput, reactionTemperature_K: temperature_K }) : vacancyDonorDensity(vacancyInput);
   return {
     mode: frozen ? 'frozen-in' : 'equilibrium',

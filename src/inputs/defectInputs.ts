@@ -44,13 +44,15 @@ export const NO_DEFECTS: DefectsInfo = {
   notes: [],
 };
 
-function required(c: DefectContext, option: OptionName, hint: string): number {
+/** The value of a table row, or an InputError naming its flag ("missing") with the hint of what to give. */
+export function required(c: DefectContext, option: OptionName, hint: string): number {
   const v = c.num(option);
   if (v === undefined) throw new InputError(flagName(row(option)), 'missing', hint);
   return v;
 }
 
-function reductionThermo(c: DefectContext): { enthalpy_eV: number; entropy_kB: number; oxygenSites_cm3: number } {
+/** The support's vacancy formation thermodynamics and oxygen-site density (cm^-3), each required. */
+export function reductionThermo(c: DefectContext): { enthalpy_eV: number; entropy_kB: number; oxygenSites_cm3: number } {
   const name = c.records.support?.name ?? 'this support';
   return {
     enthalpy_eV: required(c, 'reductionEnthalpy', `an energy per vacancy (the library has no reduction data for ${name})`),
