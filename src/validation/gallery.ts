@@ -14,7 +14,9 @@ import {
   observedBandBending_eV,
   seahDenchImfpCompound_m,
 } from '../derived/photoemission.js';
-import { SupportStateSchema, isMissingReductionData, supportStateInputs, unmappedState, type SupportStateInputs, type SupportStateMapping } from './supportState.js';
+import { SupportStateSchema, supportStateInputs, unmappedState, usesReductionData, type SupportStateInputs, type SupportStateMapping } from './supportState.js';
+import { loadBuiltinLibrary } from '../materials/load.js';
+import type { MaterialsLibrary } from '../materials/types.js';
 
 // ------------------------------------------------------------------------------------------ schemas
 
@@ -379,13 +381,13 @@ export interface ValidationOptions {
   supportState?: boolean;
 }
 
-function tryNumber(f: () => number): { value: number } | { error: string; cause?: unknown } {
+function tryNumber(f: () => number): { value: number } | { error: string } {
   try {
     const v = f();
     if (!Number.isFinite(v)) return { error: 'the solver returned a non-finite value' };
     return { value: v };
   } catch (e) {
-    return { error: e instanceof Error ? e.message : String(e), cause: e };
+    return { error: e instanceof Error ? e.message : String(e) };
   }
 }
 
@@ -403,23 +405,22 @@ export function predictedBarrier_eV(result: ContactResult, quantity: BarrierRow[
 }
 
 /**
- * Predict one row: with its support state, falling back to library defaults (and saying so) when the library has
- * no reduction data for the support; an excluded row is not solved.
+ * The state a row's contact gets: its support state, or library defaults (and saying so) when states are switched off
+ * or the state goes through reduction thermodynamics the library does not have for the support (e.g. SrTiO3).
  */
-function compareRow(
-  row: ValidationRow,
-  source: AnyRow,
-  usesState: boolean,
-  predict: (state: SupportStateInputs) => number,
-): ValidationRow {
+function stateFor(source: AnyRow, usesState: boolean, lib: MaterialsLibrary): SupportStateInputs {
+  if (!usesState) return unmappedState(source.support, 'support states switched off');
+  const state = rowSupportState(source);
+  const key = source.supportKey;
+  if (!usesReductionData(state) || key === null || lib.supports.get(key)?.reduction !== undefined) return state;
+  return unmappedState(key, 'no reduction data in the library');
+}
+
+/** Predict one row with its support state (stateFor); an excluded row is not solved. */
+function compareRow(row: ValidationRow, source: AnyRow, state: SupportStateInputs, predict: (state: SupportStateInputs) => number): ValidationRow {
   const why = excludedReason(source);
   if (why) return Object.assign(row, { status: 'excluded', reason: why });
-  let state = usesState ? rowSupportState(source) : unmappedState(source.support, 'support states switched off');
-  let p = tryNumber(() => predict(state));
-  if ('error' in p && state.mapping !== 'library-defaults' && p.cause !== undefined && isMissingReductionData(p.cause)) {
-    state = unmappedState(source.supportKey ?? source.support, 'no reduction data in the library');
-    p = tryNumber(() => predict(state));
-  }
+  const p = tryNumber(() => predict(state));
   row.supportState = { mapping: state.mapping, inputs: state.options, note: state.note };
   if ('value' in p) row.predicted = p.value;
   else Object.assign(row, { status: 'failed', reason: p.error });
@@ -444,20 +445,21 @@ export function runValidation(options: ValidationOptions = {}): ValidationResult
   const gallery = loadGallery(options.galleryDir);
   const keep = (r: { verified: boolean }) => options.includeUnverified !== false || r.verified;
   const usesState = options.supportState !== false;
+  const lib = loadBuiltinLibrary();
   const rows: ValidationRow[] = [];
 
   for (const r of gallery.barriers.filter(keep)) {
     const row = { ...rowHead('barrier', r), measured: r.value, ...(r.quantity === 'holeBarrier_eV' ? { quantity: r.quantity } : {}) };
-    rows.push(compareRow(row, r, usesState, (st) => predictedBarrier_eV(asResult(solve(barrierOptions(r, model, st))), r.quantity)));
+    rows.push(compareRow(row, r, stateFor(r, usesState, lib), (st) => predictedBarrier_eV(asResult(solve(barrierOptions(r, model, st))), r.quantity)));
   }
   for (const r of gallery.charges.filter(keep)) {
     const row = { ...rowHead('charge', r), measured: r.value, measuredSign: r.sign, measuredRange: r.magnitudeRange };
-    rows.push(compareRow(row, r, usesState, (st) => asResult(solve(chargeOptions(r, model, st))).electronsPerParticle));
+    rows.push(compareRow(row, r, stateFor(r, usesState, lib), (st) => asResult(solve(chargeOptions(r, model, st))).electronsPerParticle));
   }
   for (const r of gallery.bandBending.filter(keep)) {
     const row = { ...rowHead('bandBending', r), measured: measuredFinalBandBending_eV(r) };
     rows.push(
-      compareRow(row, r, usesState, (st) => {
+      compareRow(row, r, stateFor(r, usesState, lib), (st) => {
         const { x_m, bandBending_eV } = bandBendingProfile(asResult(solve(bandBendingOptions(r, model, st))));
         return observedBandBending_eV(x_m, bandBending_eV, rowImfp_m(r), r.emissionAngle_deg);
       }),

@@ -3,7 +3,6 @@
 // hydrogenToWater, donors). One convention, applied to every row alike, fills what a paper leaves out; it was
 // fixed before any row was compared and is never chosen per row.
 import { z } from 'zod';
-import { InputError } from '../errors.js';
 
 const num = z.number().finite();
 
@@ -94,9 +93,9 @@ export function supportStateInputs(state: SupportState | null | undefined, donor
   return { options, mapping, note: parts.join('; ') };
 }
 
-/** True for the error a support without reduction data in the library gives to pretreatment inputs. */
-export function isMissingReductionData(e: unknown): boolean {
-  return e instanceof InputError && /reduction|oxygen ?sites|oxygenSites/i.test(e.field) && /library has no|missing/i.test(e.message);
+/** True when the state's inputs go through the support's reduction thermodynamics (not a stated donor density). */
+export function usesReductionData(state: SupportStateInputs): boolean {
+  return ['reductionTemperature', 'oxygenPressure', 'hydrogenToWater'].some((key) => key in state.options);
 }
 
 /** The fallback when the library cannot take the state: library defaults, and say why. */
