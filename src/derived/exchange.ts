@@ -4,6 +4,7 @@
 import { EPS0_F_PER_M, H_PLANCK_J_S, K_BOLTZMANN_J_PER_K, M_ELECTRON_KG, Q_ELEMENTARY_C, thermalEnergy_eV } from '../constants.js';
 import { ConvergenceError, InputError, requireInRange } from '../errors.js';
 import type { ChargeModel } from '../bulk/equilibrium.js';
+import { GL5_NODES, GL5_WEIGHTS } from '../electrostatics/gaussLegendre.js';
 
 /** One hour: exchange slower than this is unlikely to equilibrate during a typical pretreatment or test. */
 export const SLOW_EXCHANGE_THRESHOLD_S = 3600;
@@ -112,10 +113,6 @@ export function slowExchange(tau: number | EquilibrationTime): boolean {
 // Issue 10, item 3: exchange through the computed barrier, and the relaxation of the contact charge.
 
 const HBAR_J_S = H_PLANCK_J_S / (2 * Math.PI);
-
-/** 5-point Gauss–Legendre nodes and weights on [-1, 1] (Abramowitz & Stegun, Table 25.4). */
-const GL5_NODES = [-0.906179845938664, -0.5384693101056831, 0, 0.5384693101056831, 0.906179845938664];
-const GL5_WEIGHTS = [0.2369268850561891, 0.4786286704993665, 0.5688888888888889, 0.4786286704993665, 0.2369268850561891];
 
 /**
  * Characteristic tunnelling energy of a uniformly doped depletion barrier (Padovani & Stratton, Solid-State

@@ -8,6 +8,7 @@ import type { ChargeModel } from '../bulk/equilibrium.js';
 import type { CrossSection } from './geometry.js';
 import { factorTridiagonal, solveFactoredTridiagonal } from './tridiagonal.js';
 import { bisectMesh, meshNodes, planarFirstIntegral, type PlanarFirstIntegral } from './mesh.js';
+import { GL5_NODES, GL5_WEIGHTS } from './gaussLegendre.js';
 
 export interface PoissonProblem {
   model: ChargeModel;
@@ -334,11 +335,8 @@ interface FarEnd {
   flux(u: number, x: number, out: Float64Array): void;
 }
 
-// 5-point Gauss–Legendre nodes and weights on [-1, 1] (Abramowitz & Stegun, Table 25.4)
-const GL_NODES = [-0.906179845938664, -0.5384693101056831, 0, 0.5384693101056831, 0.906179845938664];
 /** |u| below which the far-end G(u) comes from its Taylor series, kT */
 const SERIES_MAX_U = 1e-3;
-const GL_WEIGHTS = [0.2369268850561891, 0.4786286704993665, 0.5688888888888889, 0.4786286704993665, 0.2369268850561891];
 
 /**
  * Screened-tail condition at the far end: u' = -g(u) with g(u) = sign(u) sqrt(2 beta G(u)) + u A'(x)/(2 A(x)),
@@ -371,8 +369,8 @@ function screenedTail(model: ChargeModel, xiBulk: number, beta: number, residue:
     for (let p = 0; p < pieces; p++) {
       const mid = (p + 0.5) * width;
       for (let k = 0; k < 5; k++) {
-        model.netCharge(xiBulk - (mid + 0.5 * width * GL_NODES[k]!), charge);
-        sum += GL_WEIGHTS[k]! * (charge[0]! - residue);
+        model.netCharge(xiBulk - (mid + 0.5 * width * GL5_NODES[k]!), charge);
+        sum += GL5_WEIGHTS[k]! * (charge[0]! - residue);
       }
     }
     return 0.5 * width * sum;
