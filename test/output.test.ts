@@ -185,8 +185,8 @@ function depletionFixture(over: Partial<FixtureParams> = {}): ContactResult {
 /** The depletion-approximation barrier is E_C(0) - E_F = W_m - chi. */
 const fixture = depletionFixture();
 
-function expectCompiles(spec: TopLevelSpec): void {
-  const { vega, warnings } = compileSpec(spec);
+async function expectCompiles(spec: TopLevelSpec): Promise<void> {
+  const { vega, warnings } = await compileSpec(spec);
   expect(warnings).toEqual([]);
   expect(vega.marks?.length ?? 0).toBeGreaterThan(0);
 }
@@ -227,7 +227,7 @@ describe('synthetic fixture', () => {
 describe('band diagram', () => {
   it('compiles and renders with levels, legend and annotations (linear depth)', async () => {
     const spec = bandDiagramSpec(fixture);
-    expectCompiles(spec);
+    await expectCompiles(spec);
     const svg = await expectRenders(spec);
     for (const label of ['vacuum level E_vac', 'conduction band E_C', 'valence band E_V', 'Fermi level E_F']) {
       expect(svg).toContain(label); // legend entries
@@ -256,7 +256,7 @@ describe('band diagram', () => {
 
   it('supports a log depth axis and stays deterministic', async () => {
     const spec = bandDiagramSpec(fixture, { logDepth: true });
-    expectCompiles(spec);
+    await expectCompiles(spec);
     const svg = await expectRenders(spec);
     expect(svg).toContain('symmetric-log');
     expect(JSON.stringify(bandDiagramSpec(fixture, { logDepth: true }))).toBe(JSON.stringify(spec));
@@ -342,7 +342,7 @@ describe('charge and field', () => {
     for (const logDepth of [false, true]) {
       const spec = chargeFieldSpec(fixture, { logDepth });
       expect('vconcat' in spec && spec.vconcat.length).toBe(2);
-      expectCompiles(spec);
+      await expectCompiles(spec);
       const svg = await expectRenders(spec);
       expect(svg).toContain('charge density (C/m^3)');
       expect(svg).toContain('field (V/m, + into support)');
@@ -365,7 +365,7 @@ describe('heat map', () => {
 
   it('renders a sequential map with value labels', async () => {
     const spec = heatmapSpec(rows, { metricField: 'barrierHeight_eV', title: 'Barrier height (eV)', metals, supports });
-    expectCompiles(spec);
+    await expectCompiles(spec);
     const svg = await expectRenders(spec);
     expect(svg).toContain('mark-rect');
     expect(svg).toContain('>0.5<');
@@ -379,7 +379,7 @@ describe('heat map', () => {
     const spec = heatmapSpec(withGap, { metricField: 'electronsPerParticle', title: 'Electrons per particle', metals, supports });
     const json = JSON.stringify(spec);
     expect(json).toContain('blueorange');
-    expectCompiles(spec);
+    await expectCompiles(spec);
     const svg = await expectRenders(spec);
     expect(svg).toContain('n/a');
     const scale = (spec as { layer: { encoding?: { color?: { scale?: { domain?: number[] } } } }[] }).layer[0]!.encoding!.color!.scale!.domain!;
@@ -394,7 +394,7 @@ describe('line plot and Mott-Schottky', () => {
 
   it('plots a study against the swept input, with groups and log axes', async () => {
     const spec = linePlotSpec(rows, { x: 'temperature_K', y: 'debyeLength_nm', color: 'donors', yLog: true, title: 'Debye length' });
-    expectCompiles(spec);
+    await expectCompiles(spec);
     const svg = await expectRenders(spec);
     expect(svg).toContain('mark-line');
     expect(svg).toContain('mark-symbol');
@@ -406,7 +406,7 @@ describe('line plot and Mott-Schottky', () => {
     const spec = linePlotSpec(bad, { x: 'temperature_K', y: 'debyeLength_nm', xLog: true, title: 't' }) as { data: { values: unknown[] } };
     expect(spec.data.values.length).toBe(rows.length);
     const cat = linePlotSpec([{ m: 'Pt', y: 1 }, { m: 'Au', y: 2 }], { x: 'm', y: 'y', title: 'by metal' });
-    expectCompiles(cat);
+    await expectCompiles(cat);
     await expectRenders(cat);
   });
 
@@ -414,7 +414,7 @@ describe('line plot and Mott-Schottky', () => {
     const fit = { slope: 2e13, intercept: 1e13, flatBand_V: -0.55 };
     const points = [0, 0.2, 0.4, 0.6, 0.8].map((v) => ({ potential_V: v, inverseCapSquared: fit.slope * v + fit.intercept + (v - 0.4) * 1e11 }));
     const spec = mottSchottkyFitSpec(points, fit, { yTitle: '1/C^2 (cm^4/F^2)' });
-    expectCompiles(spec);
+    await expectCompiles(spec);
     const svg = await expectRenders(spec);
     expect(svg).toContain('flat band -0.55 V');
     expect(svg).toContain('mark-symbol');

@@ -1,8 +1,8 @@
 // Vega-Lite spec -> Vega -> SVG, headless (renderer 'none': no browser, no canvas, no fonts, no network).
 import { mkdir, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
-import * as vega from 'vega';
-import { compile, type TopLevelSpec } from 'vega-lite';
+import type * as Vega from 'vega';
+import type { compile, TopLevelSpec } from 'vega-lite';
 import { isSafeBaseName } from './escape.js';
 
 type VlLogger = NonNullable<NonNullable<Parameters<typeof compile>[1]>['logger']>;
@@ -37,15 +37,20 @@ function collectingLogger(sink: string[]): VlLogger {
   return logger;
 }
 
-/** Compile a Vega-Lite spec to Vega, collecting compiler warnings. */
-export function compileSpec(spec: TopLevelSpec): CompiledSpec {
+/**
+ * Compile a Vega-Lite spec to Vega, collecting compiler warnings. vega and vega-lite are ES modules only and are
+ * loaded here, at first use, by import() (the CLI bundle is CommonJS for its start-up code cache, src/cli/bundle.ts,
+ * and could not require() them; nothing that does not draw a figure pays for loading them).
+ */
+export async function compileSpec(spec: TopLevelSpec): Promise<CompiledSpec> {
+  const { compile: compileVegaLite } = await import('vega-lite');
   const warnings: string[] = [];
-  const out = compile(spec, { logger: collectingLogger(warnings) });
+  const out = compileVegaLite(spec, { logger: collectingLogger(warnings) });
   return { vega: out.spec, warnings };
 }
 
 /** A loader that refuses every URL or file (our specs carry inline data only) and records the attempts. */
-function offlineLoader(refused: string[]): vega.Loader {
+function offlineLoader(refused: string[]): Vega.Loader {
   const refuse = (uri: string): Promise<never> => {
     refused.push(uri);
     return Promise.reject(new Error(`external resource "${uri}" refused`));
@@ -71,7 +76,7 @@ export function svgSize(svg: string): { width: number; height: number } {
  * Text widths are estimated by Vega (no canvas, no font files); external loads are refused.
  */
 export async function renderSvg(spec: TopLevelSpec): Promise<string> {
-  const { vega: vgSpec } = compileSpec(spec);
+  const [{ vega: vgSpec }, vega] = await Promise.all([compileSpec(spec), import('vega')]);
   const refused: string[] = [];
   const view = new vega.View(vega.parse(vgSpec), {
     renderer: 'none',
