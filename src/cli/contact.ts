@@ -6,7 +6,7 @@ import { createFolder } from '../inputs/files.js';
 import type { ContactOptions } from '../inputs/parameters.js';
 import { addContactFlags, contactOptionsFrom } from './options.js';
 import { FIT_USES, noteFitInputs, optionsFromFit, readFitFile, type FitUse } from './fitInput.js';
-import { writeJson, notice } from './io.js';
+import { writeJson, notice, writeToFd, STDOUT_FD } from './io.js';
 
 const EXAMPLES = `
 Examples:
@@ -51,7 +51,7 @@ async function runContact(opts: Record<string, unknown>): Promise<void> {
   if (opts['json'] === true) writeJson(result);
   else {
     const { formatContactSummary } = await import('../output/summary.js');
-    process.stdout.write(`${formatContactSummary(result)}\n`);
+    writeToFd(STDOUT_FD, `${formatContactSummary(result)}\n`);
   }
 }
 

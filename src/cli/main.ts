@@ -4,6 +4,7 @@ import type { Command as CommandType } from 'commander';
 import { Command, CommanderError } from './commander.js';
 import { InputError, ConvergenceError } from '../errors.js';
 import { stripTerminalControl } from '../output/escape.js';
+import { writeToFd, STDERR_FD } from './io.js';
 import { registerContact } from './contact.js';
 import { registerScreen } from './screen.js';
 import { registerStudyCommand } from './study.js';
@@ -50,9 +51,9 @@ export function errorLine(message: string, suffix = ''): string {
 export async function main(argv: string[]): Promise<number> {
   const program = buildProgram(argv);
   const output = {
-    writeErr: (text: string) => process.stderr.write(stripTerminalControl(text, true)),
+    writeErr: (text: string) => writeToFd(STDERR_FD, stripTerminalControl(text, true)),
     // commander's usage errors ("error: unknown option '--x'") in the same one-line form as every other error
-    outputError: (text: string) => process.stderr.write(errorLine(text.replace(/^error:\s*/, ''), ' (run with --help for usage)')),
+    outputError: (text: string) => writeToFd(STDERR_FD, errorLine(text.replace(/^error:\s*/, ''), ' (run with --help for usage)')),
   };
   const all = [program, ...program.commands, ...program.commands.flatMap((c) => c.commands)];
   for (const command of all) command.exitOverride().configureOutput(output);
@@ -67,16 +68,16 @@ export async function main(argv: string[]): Promise<number> {
       return 2;
     }
     if (error instanceof InputError) {
-      process.stderr.write(errorLine(error.message));
+      writeToFd(STDERR_FD, errorLine(error.message));
       return 2;
     }
     if (error instanceof ConvergenceError) {
-      process.stderr.write(`bandbend: ${stripTerminalControl(error.message)}\n`);
+      writeToFd(STDERR_FD, `bandbend: ${stripTerminalControl(error.message)}\n`);
       return 1;
     }
     const message = error instanceof Error ? error.message : String(error);
-    process.stderr.write(`bandbend: internal error: ${stripTerminalControl(message)}\n`);
-    if (process.env['BANDBEND_DEBUG'] && error instanceof Error) process.stderr.write(`${error.stack ?? ''}\n`);
+    writeToFd(STDERR_FD, `bandbend: internal error: ${stripTerminalControl(message)}\n`);
+    if (process.env['BANDBEND_DEBUG'] && error instanceof Error) writeToFd(STDERR_FD, `${error.stack ?? ''}\n`);
     return 1;
   }
 }
