@@ -16,6 +16,7 @@
 const { readFileSync, renameSync, statSync, unlinkSync, writeFileSync } = require('node:fs');
 const { createRequire } = require('node:module');
 const { dirname, join } = require('node:path');
+const { pathToFileURL } = require('node:url');
 const vm = require('node:vm');
 
 const ENTRY = join(__dirname, '..', 'dist', 'bundle', 'bandbend.cjs');
@@ -97,7 +98,7 @@ async function run() {
       loader.writeCaches();
     }
   }
-  const { main } = await import(UNBUNDLED);
+  const { main } = await import(pathToFileURL(UNBUNDLED).href);
   return main(argv);
 }
 

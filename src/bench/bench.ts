@@ -42,7 +42,8 @@
 //    against `node -e 0` (bare Node start-up), each spawned 11 times in alternation (spawnSync, wall time around the
 //    call); reported as medians and their ratio (startup_ratio = CLI / bare node). Includes module loading and the
 //    library lookup, so it is what a user or a shell script waits for. bin/bandbend.js runs the rolldown bundle in
-//    dist/bundle/ (src/cli/bundle.ts, made by `npm run build`, which the bench runs first).
+//    dist/bundle/ (src/cli/bundle.ts, made by `npm run build`, which the bench runs first) from V8's code cache
+//    (made by the build's warm-up run; the bench's own first, discarded run would make it otherwise).
 //  STUDY JOBS: benchStudyJobs() of src/study/benchStudy.ts: a 10k-point study (custom planar contact) run alternately
 //    with jobs 2 and jobs 1, 3 repeats; median wall times and their ratio (studyJobs_speedup = jobs 1 / jobs 2).
 //    BENCH_QUICK=1 runs it on 400 points with 1 repeat (studyJobs_points says which).
