@@ -280,8 +280,8 @@ function bracketBending(input: InterfaceAlignmentInput, f: (v: number) => number
 
 /**
  * A non-decreasing model of Q_sc(v) through the last evaluated charges, built on the stand-in E(v) and on v itself
- * (Q_sc(0) = E(0) = 0; a planar support follows E, a particle much smaller than the layer the linear charge of a
- * sphere's capacitance; a curved geometry lies between):
+ * (Q_sc(0) = E(0) = 0; a planar support follows E, a particle much smaller than its space-charge layer the linear
+ * charge of a sphere's capacitance, a curved geometry something between):
  *   none:  E(v)
  *   one:   E(v) + (Q1 - E(v1)) v / v1 (the planar charge plus a linear excess), when that is non-decreasing; else
  *          E(v) Q1/E(v1), else the constant Q1
