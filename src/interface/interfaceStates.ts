@@ -21,11 +21,11 @@
 //   confined to the gap and their Fermi–Dirac occupancy integrated in closed form when a temperature is given).
 // The residual R(V) = Phi_B(V) - phi_m + chi - Q_m(V) delta/(eps_i eps0) [+ particle term] is strictly increasing
 // in V (slope >= 1: every term is non-decreasing), so it has exactly one root, and one evaluation at any V0 brackets
-// it: the root lies between V0 and V0 - R(V0). Each evaluation costs the caller one Poisson solve, so the root is
-// found with few (solveBending): V0 is the root of the same residual with a cheap stand-in for Q_sc (no Poisson
-// solve), then each iterate is the root of the residual with Q_sc replaced by a model through the evaluated charges
-// (the stand-in rescaled, then a secant in it), kept inside the bracket, with bisection when the bracket does not
-// shrink fast enough.
+// it: the root lies between V0 and V0 - R(V0) (closer still, solveBending). Each evaluation costs the caller one
+// Poisson solve, so the root is found with few: V0 is the root of the same residual with a cheap stand-in for Q_sc
+// (no Poisson solve), then each iterate is the root of the residual with Q_sc replaced by a model through the
+// evaluated charges (the stand-in plus a linear excess, then alpha E + beta V through the last two), kept inside the
+// bracket, with bisection when the bracket does not shrink fast enough.
 import { EPS0_F_PER_M, Q_ELEMENTARY_C, thermalEnergy_eV } from '../constants.js';
 import { ConvergenceError, InputError, requireInRange } from '../errors.js';
 import { empiricalPinningFactor } from '../barrier/barrier.js';
