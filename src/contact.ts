@@ -9,6 +9,7 @@ import {
   DEFAULT_INTERFACE_LAYER_PERMITTIVITY,
   DEFAULT_INTERFACE_LAYER_THICKNESS_M,
   interfaceStateDensityFromSlope,
+  keepingEvaluations,
   solveInterfaceAlignment,
   type InterfaceAlignment,
   type InterfaceStateParameters,
@@ -130,7 +131,8 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
   let interfaceStates: (InterfaceAlignment & InterfaceStateParameters) | null = null;
   if (r.barrierModel === 'interface-states') {
     const params = interfaceParametersOf(r);
-    let last: { bandBending_eV: number; solution: PoissonSolution } | null = null;
+    // the Poisson solution at each band bending the alignment evaluates: its root is one of them
+    const solved = keepingEvaluations(solveAt, (p: PoissonSolution) => p.totalCharge_C / geometry.interfaceArea_m2);
     // Bardeen / Cowley–Sze: the barrier, the interface-state charge and the space charge solved together
     interfaceStates = { ...params, ...solveInterfaceAlignment({
       ...params,
@@ -140,15 +142,13 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
       bandGap_eV: s.bandGap_eV,
       fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV,
       temperature_K: r.temperature_K,
-      spaceCharge: (v) => {
-        last = { bandBending_eV: v, solution: solveAt(v) };
-        return last.solution.totalCharge_C / geometry.interfaceArea_m2;
-      },
+      spaceCharge: solved.spaceCharge,
+      // the planar first integral places the iterates (cheap; the Poisson solves decide convergence)
+      spaceChargeEstimate: planarChargeOfBending(model, bulk.reducedFermiLevel, s.permittivity, r.temperature_K),
       tolerance_eV: 1e-9,
     }) };
     bandBending_eV = interfaceStates.bandBending_eV;
-    const previous = last as { bandBending_eV: number; solution: PoissonSolution } | null;
-    solution = previous !== null && previous.bandBending_eV === bandBending_eV ? previous.solution : solveAt(bandBending_eV);
+    solution = solved.at(bandBending_eV) ?? solveAt(bandBending_eV);
     const electronBarrier_eV = interfaceStates.electronBarrier_eV;
     barrier = {
       electronBarrier_eV,
@@ -159,13 +159,15 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
   } else {
     // ideal rule at a finite particle: its Fermi level moves by N/g_tot with its charge (src/derived/finiteParticle.ts)
     const particle = r.barrierModel === 'ideal' ? finiteParticleTerm(r, geometry) : undefined;
-    const shift_eV = particle === undefined ? 0 : idealParticleAlignment({
+    const solved = keepingEvaluations(solveAt, (p: PoissonSolution) => p.totalCharge_C / geometry.interfaceArea_m2);
+    const aligned = particle === undefined ? null : idealParticleAlignment({
       metalWorkFunction_eV, electronAffinity_eV: s.electronAffinity_eV, bandGap_eV: s.bandGap_eV, particle,
-      fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV, spaceCharge: (v) => solveAt(v).totalCharge_C / geometry.interfaceArea_m2,
-    }).fermiLevelShift_eV;
+      fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV, spaceCharge: solved.spaceCharge,
+      spaceChargeEstimate: planarChargeOfBending(model, bulk.reducedFermiLevel, s.permittivity, r.temperature_K),
+    });
     barrier = barrierHeight({
       model: r.barrierModel,
-      metalWorkFunction_eV: metalWorkFunction_eV - shift_eV,
+      metalWorkFunction_eV: metalWorkFunction_eV - (aligned?.fermiLevelShift_eV ?? 0),
       electronAffinity_eV: s.electronAffinity_eV,
       bandGap_eV: s.bandGap_eV,
       opticalPermittivity: s.opticalPermittivity,
@@ -174,9 +176,10 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
       neutralLevel_eV: s.neutralLevel_eV,
       givenBarrier_eV: r.givenBarrier_eV,
     });
-    // band bending = E_C(0) - E_C(bulk) = (E_C(0) - E_F) - (E_C - E_F)_bulk
-    bandBending_eV = barrier.electronBarrier_eV - bulk.fermiLevelBelowConduction_eV;
-    solution = solveAt(bandBending_eV);
+    // band bending = E_C(0) - E_C(bulk) = (E_C(0) - E_F) - (E_C - E_F)_bulk; at a particle the alignment's root (equal
+    // to it within the alignment's 1e-9 eV tolerance), a band bending already solved
+    bandBending_eV = aligned === null ? barrier.electronBarrier_eV - bulk.fermiLevelBelowConduction_eV : aligned.bandBending_eV;
+    solution = solved.at(bandBending_eV) ?? solveAt(bandBending_eV);
   }
   const physics = derivePhysics({ r, model, bulk, barrier, nType, bandBending_eV, geometry, solution, interfaceStates });
   return toContactResult(physics, evaluateWarnings(warningFacts(physics)));

@@ -1,6 +1,20 @@
 // Interface states solved self-consistently with the space charge (Bardeen 1947; Cowley & Sze, J. Appl. Phys. 36,
 // 3212 (1965)).
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
+
+// every Poisson solve of the pipeline counted (issue 13: how many the interface alignment costs a contact)
+const poissonCalls = vi.hoisted(() => ({ count: 0 }));
+vi.mock('../src/electrostatics/poisson.js', async (importOriginal) => {
+  const actual = await importOriginal<typeof import('../src/electrostatics/poisson.js')>();
+  return {
+    ...actual,
+    solvePoisson: (problem: Parameters<typeof actual.solvePoisson>[0]) => {
+      poissonCalls.count++;
+      return actual.solvePoisson(problem);
+    },
+  };
+});
+
 import {
   interfaceStateCharge_C_per_m2,
   interfaceParametersFromLibrary,
@@ -15,6 +29,10 @@ import { makeChargeModel, solveBulkNeutrality } from '../src/bulk/equilibrium.js
 import { solvePoisson } from '../src/electrostatics/poisson.js';
 import { PLANAR } from '../src/electrostatics/geometry.js';
 import { CODATA2018, boltzmannPlanarCharge, exactPlanarCharge, simpson } from './helpers.js';
+import { ConvergenceError } from '../src/errors.js';
+import { interfaceParametersOf, solveContact } from '../src/contact.js';
+import { resolveContact, supportElectronicOf, withVacancyDonors } from '../src/inputs/contactInput.js';
+import { PLANAR as PLANAR_SECTION } from '../src/electrostatics/geometry.js';
 
 const T = 300;
 const kT = (CODATA2018.k * T) / CODATA2018.q;
@@ -128,7 +146,8 @@ describe('limits of the self-consistent interface-state model', () => {
     const r = solveInterfaceAlignment(base({ metalWorkFunction_eV: 3.5, stateDensity_per_eV_m2: 1e16 }));
     expect(r.bandBending_eV).toBeLessThan(0);
     expect(r.spaceCharge_C_per_m2).toBeLessThan(0);
-    expect(r.iterations).toBeLessThan(60);
+    // no stand-in for an exponential accumulation charge: 16 evaluations (the full-bracket Brent before issue 13: 15)
+    expect(r.iterations).toBeLessThanOrEqual(16);
   });
 });
 
@@ -154,7 +173,8 @@ describe('with the project Poisson solver as the space charge (how the pipeline 
     const numeric = solveInterfaceAlignment(base({ ...common, spaceCharge: poisson }));
     const exact = solveInterfaceAlignment(base({ ...common, spaceCharge: (v) => exactPlanarCharge(support, EPS_S, v) }));
     expect(Math.abs(numeric.electronBarrier_eV - exact.electronBarrier_eV)).toBeLessThan(1e-6);
-    expect(numeric.iterations).toBeLessThan(30);
+    // no stand-in: 5 evaluations (9 before issue 13)
+    expect(numeric.iterations).toBeLessThanOrEqual(6);
   });
 });
 
@@ -205,5 +225,186 @@ describe('interface-state charge and the slope/density relation', () => {
     expect(() => solveInterfaceAlignment(base({ layerPermittivity: 0.5 }))).toThrow(/layerPermittivity/);
     expect(() => solveInterfaceAlignment(base({ neutralLevelAboveValence_eV: 5 }))).toThrow(/neutralLevel/);
     expect(() => interfaceStateDensityFromSlope(0)).toThrow(/pinningFactor/);
+  });
+});
+
+/**
+ * The alignment residual written out again from the relations in the header of src/interface/interfaceStates.ts
+ * (Cowley & Sze, J. Appl. Phys. 36, 3212 (1965): Phi_B = phi_m - N/g - chi + Q_m delta/(eps_i eps0), Q_m = -(Q_sc +
+ * Q_it), or -q N / A_footprint with N = (Q_sc A_interface + Q_it A_footprint)/q for a particle), and its root by plain
+ * bisection to 1e-12 eV: the reference the solver's result must equal within its tolerance.
+ */
+function residualOf(input: InterfaceAlignmentInput): (v: number) => number {
+  const layer = input.layerThickness_m / (input.layerPermittivity * CODATA2018.eps0);
+  return (v: number): number => {
+    const barrier = input.fermiLevelBelowConduction_eV + v;
+    const qsc = input.spaceCharge(v);
+    const qit = interfaceStateCharge_C_per_m2(barrier, input.bandGap_eV, input.neutralLevelAboveValence_eV, input.stateDensity_per_eV_m2, input.temperature_K);
+    const p = input.particle;
+    if (p === undefined) return barrier - (input.metalWorkFunction_eV - input.electronAffinity_eV - (qsc + qit) * layer);
+    const n = (qsc * p.interfaceArea_m2 + qit * p.footprintArea_m2) / CODATA2018.q;
+    return barrier - (input.metalWorkFunction_eV - n / p.densityOfStates_per_eV - input.electronAffinity_eV - ((CODATA2018.q * n) / p.footprintArea_m2) * layer);
+  };
+}
+
+function referenceBending(input: InterfaceAlignmentInput): number {
+  const residual = residualOf(input);
+  let lo = -10;
+  let hi = 10;
+  expect(residual(lo)).toBeLessThan(0);
+  expect(residual(hi)).toBeGreaterThan(0);
+  while (hi - lo > 1e-12) {
+    const mid = 0.5 * (lo + hi);
+    if (residual(mid) > 0) hi = mid;
+    else lo = mid;
+  }
+  return 0.5 * (lo + hi);
+}
+
+/** the input with its spaceCharge recorded: every band bending it was called at and the charge it returned */
+function recorded(input: InterfaceAlignmentInput): { input: InterfaceAlignmentInput; calls: Map<number, number> } {
+  const calls = new Map<number, number>();
+  const spaceCharge = input.spaceCharge;
+  return {
+    input: {
+      ...input,
+      spaceCharge: (v) => {
+        const q = spaceCharge(v);
+        calls.set(v, q);
+        return q;
+      },
+    },
+    calls,
+  };
+}
+
+describe('few space-charge evaluations, same root (issue 13)', () => {
+  // a 2 nm-class particle on the ZnO-like support: g_tot of ~140 Pt atoms (0.6-2 states/eV/atom is typical of d metals,
+  // common practice, no source), footprint pi (1 nm)^2, interface twice that (a hemisphere's curved face)
+  const particle = { densityOfStates_per_eV: 150, footprintArea_m2: Math.PI * 1e-18, interfaceArea_m2: 2 * Math.PI * 1e-18 };
+  // [case, overrides, most evaluations without a stand-in]: the exponential accumulation charge is the hard one for
+  // secant steps in v alone (the full-bracket Brent used before issue 13 needed 15 there)
+  const cases: [string, Partial<InterfaceAlignmentInput>, number][] = [
+    ['depletion, D_it 1e17', {}, 7],
+    ['depletion, D_it 1e18, Fermi–Dirac occupancy at 900 K', { stateDensity_per_eV_m2: 1e18, temperature_K: 900 }, 7],
+    ['accumulation, phi_m 3.5 eV, D_it 1e16', { metalWorkFunction_eV: 3.5, stateDensity_per_eV_m2: 1e16 }, 16],
+    ['no states (Schottky–Mott with a layer)', { stateDensity_per_eV_m2: 0 }, 7],
+    ['particle term, Q_sc 10 x planar (a curved geometry holds more charge per area than the planar stand-in)', { particle, spaceCharge: (v) => 10 * planar(ND)(v) }, 7],
+    ['particle term, accumulation', { particle, metalWorkFunction_eV: 3.8, spaceCharge: (v) => 4 * planar(ND)(v) }, 7],
+  ];
+  const standIns: [string, ((v: number) => number) | undefined][] = [
+    ['no stand-in', undefined],
+    ['the planar charge as stand-in', planar(ND)],
+    ['a stand-in 5x too small', (v) => 0.2 * planar(ND)(v)],
+  ];
+
+  it('the band bending equals a plain bisection on the same residual (to 1e-12) within the tolerance, is one of the evaluated points, and costs at most 3 evaluations with a stand-in of the right shape', () => {
+    for (const [name, overrides, noStandInLimit] of cases) {
+      const reference = referenceBending(base(overrides));
+      for (const [label, estimate] of standIns) {
+        for (const tolerance_eV of [1e-9, 1e-12]) {
+          const { input, calls } = recorded(base({ ...overrides, spaceChargeEstimate: estimate, tolerance_eV }));
+          const r = solveInterfaceAlignment(input);
+          const at = `${name}, ${label}, tolerance ${tolerance_eV}`;
+          expect(Math.abs(r.bandBending_eV - reference), at).toBeLessThanOrEqual(tolerance_eV + 1e-12);
+          // the root was evaluated (its charges are the evaluated ones), and every call is counted
+          expect(calls.get(r.bandBending_eV), at).toBe(r.spaceCharge_C_per_m2);
+          expect(r.iterations, at).toBe(calls.size);
+          expect(r.iterations, at).toBeLessThanOrEqual(estimate === undefined ? noStandInLimit : 3);
+        }
+      }
+    }
+  });
+
+  it('with the exact charge as stand-in one evaluation is enough', () => {
+    const exact = solveInterfaceAlignment(base({ spaceChargeEstimate: planar(ND), tolerance_eV: 1e-9 }));
+    expect(exact.iterations).toBe(1);
+    expect(solveInterfaceAlignment(base({ spaceChargeEstimate: planar(ND) })).iterations).toBe(1);
+  });
+
+  it('Q_sc = 0: one evaluation gives the closed form Phi_B = S (phi_m - chi) + (1 - S)(E_g - phi_0) to 1e-12 eV (Cowley & Sze 1965)', () => {
+    for (const d of [1e16, 1e17, 1e18]) {
+      for (const phiM of [4.3, 5.1, 5.65]) {
+        const r = solveInterfaceAlignment(base({ stateDensity_per_eV_m2: d, metalWorkFunction_eV: phiM, spaceCharge: () => 0 }));
+        const S = 1 / (1 + (CODATA2018.q * d * 0.5e-9) / CODATA2018.eps0);
+        expect(Math.abs(r.electronBarrier_eV - (S * (phiM - CHI) + (1 - S) * (GAP - 2.6)))).toBeLessThan(1e-12);
+        expect(r.iterations).toBe(1);
+      }
+    }
+  });
+
+  it('a space charge that falls with the band bending (not monotone): ConvergenceError, never NaN', () => {
+    expect(() => solveInterfaceAlignment(base({ spaceCharge: (v) => -0.1 * v }))).toThrow(ConvergenceError);
+    expect(() => solveInterfaceAlignment(base({ spaceCharge: (v) => -0.1 * v, spaceChargeEstimate: planar(ND) }))).toThrow(ConvergenceError);
+  });
+
+  it('a space charge with noise far above the tolerance: still a root of the computed residual within the noise, finite', () => {
+    // +-1e-7 C/m^2 of deterministic noise (x delta/eps0 = +-6e-6 eV in R, and R falls steeply in places) against a
+    // 1e-9 eV tolerance: the slope >= 1 the bracket rests on does not hold; a regression check, common practice, no source
+    const noisy = (v: number): number => planar(ND)(v) + 1e-7 * Math.sin(1e7 * v);
+    const reference = referenceBending(base());
+    const r = solveInterfaceAlignment(base({ spaceCharge: noisy, spaceChargeEstimate: planar(ND), tolerance_eV: 1e-9 }));
+    expect(Number.isFinite(r.bandBending_eV)).toBe(true);
+    expect(Math.abs(r.bandBending_eV - reference)).toBeLessThan(1e-5);
+    // a root of the noisy residual itself: it changes sign within the tolerance of the result
+    const f = residualOf(base({ spaceCharge: noisy }));
+    expect(f(r.bandBending_eV - 1e-9) * f(r.bandBending_eV + 1e-9)).toBeLessThanOrEqual(0);
+    expect(r.iterations).toBeLessThan(60);
+  });
+});
+
+describe('in the pipeline: Pt on ZnO, N_D 1e17 cm^-3, 473 K (the default barrier model; issue 13)', () => {
+  const options = { metal: 'Pt', support: 'ZnO', donors: '1e17 cm^-3', temperature: '473 K' } as const;
+
+  it('planar (default) contact: at most 2 Poisson solves in all (8 before issue 13), the root reused, the band bending within 2e-9 eV of a bisection on the same Poisson residual', () => {
+    poissonCalls.count = 0;
+    const res = solveContact(options);
+    const solves = poissonCalls.count;
+    const states = res.interfaceStates!;
+    expect(states.evaluations).toBeLessThanOrEqual(2);
+    expect(solves).toBe(states.evaluations); // no solve after the alignment: the root's solution is reused
+    // the reused solution is the one at the root: its charge closes the neutrality Q_m + Q_it + Q_sc = 0 to rounding
+    expect(Math.abs(res.spaceCharge_C_per_m2 + states.metalCharge_C_per_m2 + states.interfaceStateCharge_C_per_m2)).toBeLessThan(1e-15);
+    // reference: the same inputs, the Poisson charge of the pipeline, the residual written out above, bisection
+    const r = withVacancyDonors(resolveContact(options));
+    const model = makeChargeModel(supportElectronicOf(r.support, r.temperature_K, r.statistics));
+    const bulk = solveBulkNeutrality(model);
+    const spaceCharge = (v: number): number =>
+      solvePoisson({
+        model,
+        bulkReducedFermiLevel: bulk.reducedFermiLevel,
+        surfaceBending: v / model.kT_eV,
+        relativePermittivity: r.support.permittivity,
+        temperature_K: r.temperature_K,
+        geometry: PLANAR_SECTION,
+        thickness_m: r.supportThickness_m,
+        refinement: r.refinement,
+      }).totalCharge_C;
+    const params = interfaceParametersOf(r);
+    const reference = referenceBending({
+      ...params,
+      metalWorkFunction_eV: r.metal.workFunction_eV,
+      electronAffinity_eV: r.support.electronAffinity_eV,
+      bandGap_eV: r.support.bandGap_eV,
+      fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV,
+      temperature_K: r.temperature_K,
+      spaceCharge,
+    });
+    expect(Math.abs(res.bandBending_eV - reference)).toBeLessThan(2e-9);
+  });
+
+  it('ideal model, Au on CeO2, 2 nm hemisphere (finite-particle alignment): at most 4 Poisson solves (11 before issue 13)', () => {
+    poissonCalls.count = 0;
+    solveContact({ metal: 'Au', support: 'CeO2', geometry: 'hemisphere', particleDiameter: 2, barrierModel: 'ideal' });
+    expect(poissonCalls.count).toBeLessThanOrEqual(4);
+  });
+
+  it('hemisphere and particle array: at most 5 Poisson solves (7 and 9 before), none after the alignment', () => {
+    for (const geometry of [{ geometry: 'hemisphere' }, { geometry: 'array', particleDensity: '1e12' }] as const) {
+      poissonCalls.count = 0;
+      const res = solveContact({ ...options, ...geometry });
+      expect(res.interfaceStates!.evaluations, geometry.geometry).toBeLessThanOrEqual(5);
+      expect(poissonCalls.count, geometry.geometry).toBe(res.interfaceStates!.evaluations);
+    }
   });
 });

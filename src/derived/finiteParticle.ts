@@ -213,6 +213,8 @@ export interface IdealParticleInput {
   particle: ParticleTerm;
   /** non-decreasing Q_sc(V), C/m^2, for band bending V in eV (one Poisson solve per call) */
   spaceCharge: (bandBending_eV: number) => number;
+  /** cheap non-decreasing stand-in for Q_sc(V), C/m^2 (e.g. planarChargeOfBending); see InterfaceAlignmentInput */
+  spaceChargeEstimate?: ((bandBending_eV: number) => number) | undefined;
 }
 
 /**
@@ -220,9 +222,11 @@ export interface IdealParticleInput {
  * (quantum capacitance, Luryi 1988), so Phi_B = (W - N/g_tot) - chi with N = Q_sc(Phi_B - xi_b) A / q, solved
  * self-consistently. This is the D_it = 0, delta = 0 limit of solveInterfaceAlignment, used for it. Returns the
  * Fermi-level shift N/g_tot (eV, positive when the particle gained electrons) and N; the effective work function is
- * W - shift. |N| never exceeds the Schottky–Mott charge (transferredChargeBound, bound 1).
+ * W - shift. |N| never exceeds the Schottky–Mott charge (transferredChargeBound, bound 1). `bandBending_eV` is the
+ * root, a band bending at which spaceCharge was called (its Poisson solution can be reused); W - shift - chi - xi_b
+ * equals it to within the 1e-9 eV tolerance.
  */
-export function idealParticleAlignment(input: IdealParticleInput): { fermiLevelShift_eV: number; electronsGained: number } {
+export function idealParticleAlignment(input: IdealParticleInput): { fermiLevelShift_eV: number; electronsGained: number; bandBending_eV: number; iterations: number } {
   const aligned = solveInterfaceAlignment({
     ...input,
     stateDensity_per_eV_m2: 0,
@@ -231,5 +235,10 @@ export function idealParticleAlignment(input: IdealParticleInput): { fermiLevelS
     layerPermittivity: 1,
     tolerance_eV: 1e-9,
   });
-  return { fermiLevelShift_eV: aligned.particle!.fermiLevelShift_eV, electronsGained: aligned.particle!.electronsGained };
+  return {
+    fermiLevelShift_eV: aligned.particle!.fermiLevelShift_eV,
+    electronsGained: aligned.particle!.electronsGained,
+    bandBending_eV: aligned.bandBending_eV,
+    iterations: aligned.iterations,
+  };
 }

@@ -20,8 +20,12 @@
 //   (exact for a uniform density at any temperature while E_F stays a few kT inside the gap; here the states are
 //   confined to the gap and their Fermi–Dirac occupancy integrated in closed form when a temperature is given).
 // The residual R(V) = Phi_B(V) - phi_m + chi - Q_m(V) delta/(eps_i eps0) [+ particle term] is strictly increasing
-// in V (slope >= 1: every term is non-decreasing), so it has exactly one root, found by Brent's method inside a
-// bracket that provably contains it.
+// in V (slope >= 1: every term is non-decreasing), so it has exactly one root, and one evaluation at any V0 brackets
+// it: the root lies between V0 and V0 - R(V0) (closer still, solveBending). Each evaluation costs the caller one
+// Poisson solve, so the root is found with few: V0 is the root of the same residual with a cheap stand-in for Q_sc
+// (no Poisson solve), then each iterate is the root of the residual with Q_sc replaced by a model through the
+// evaluated charges (the stand-in plus a linear excess, then alpha E + beta V through the last two), kept inside the
+// bracket, with bisection when the bracket does not shrink fast enough.
 import { EPS0_F_PER_M, Q_ELEMENTARY_C, thermalEnergy_eV } from '../constants.js';
 import { ConvergenceError, InputError, requireInRange } from '../errors.js';
 import { empiricalPinningFactor } from '../barrier/barrier.js';
@@ -155,6 +159,12 @@ export interface InterfaceAlignmentInput extends InterfaceStateParameters {
   temperature_K?: number | undefined;
   /** Q_sc(V), C/m^2, for band bending V in eV (up = positive); non-decreasing; Q_sc(0) = 0 */
   spaceCharge: (bandBending_eV: number) => number;
+  /**
+   * a cheap stand-in for Q_sc(V) (no Poisson solve), C/m^2, non-decreasing, e.g. the planar first-integral charge
+   * (planarChargeOfBending, src/derived/exchange.ts); it only places the iterates and never decides convergence, so
+   * a poor one costs evaluations, not accuracy. Omitted: 0.
+   */
+  spaceChargeEstimate?: ((bandBending_eV: number) => number) | undefined;
   particle?: ParticleTerm | undefined;
   /** tolerance on the band bending, eV (default 1e-12) */
   tolerance_eV?: number;
@@ -175,7 +185,7 @@ export interface InterfaceAlignment {
   pinningFactor: number;
   /** electrons gained by the particle and the resulting Fermi-level shift (null without a particle term) */
   particle: { electronsGained: number; fermiLevelShift_eV: number; effectiveWorkFunction_eV: number } | null;
-  /** residual evaluations used */
+  /** residual evaluations used: calls of spaceCharge, one of which was at the returned band bending */
   iterations: number;
 }
 
@@ -196,6 +206,8 @@ function checkAlignmentInput(input: InterfaceAlignmentInput): void {
 
 /** The charges and the residual of the alignment at one interface band bending. */
 interface AlignmentState {
+  /** v, eV */
+  bandBending_eV: number;
   residual: number;
   qsc: number;
   qit: number;
@@ -205,18 +217,16 @@ interface AlignmentState {
 }
 
 /**
- * R(v) = Phi_B - (phi_m - N/g - chi + Q_m delta/(eps_i eps0)) at interface band bending v (eV), increasing in v;
- * `count()` is the number of evaluations so far (each is one Poisson solve of the caller's space charge).
+ * R(v) = Phi_B - (phi_m - N/g - chi + Q_m delta/(eps_i eps0)) at interface band bending v (eV) with space charge
+ * Q_sc (C/m^2) given: R is affine in Q_sc with a coefficient >= 0 (delta/(eps_i eps0), or A_interface (1/g +
+ * q delta/(eps_i eps0 A_footprint))/q for a particle) and its other terms rise with v at slope >= 1, so R(v, Q(v))
+ * increases with slope >= 1 for every non-decreasing Q(v): the true Q_sc, the caller's stand-in, or a model of it.
  */
-function alignmentResidual(input: InterfaceAlignmentInput): { evaluate: (v: number) => AlignmentState; count: () => number } {
+function alignmentState(input: InterfaceAlignmentInput): (v: number, qsc: number) => AlignmentState {
   const particle = input.particle;
   const layer = input.layerThickness_m / (input.layerPermittivity * EPS0_F_PER_M); // V per (C/m^2)
-  let evaluations = 0;
-  const evaluate = (v: number): AlignmentState => {
-    evaluations++;
+  return (v: number, qsc: number): AlignmentState => {
     const barrier = input.fermiLevelBelowConduction_eV + v;
-    const qsc = input.spaceCharge(v);
-    if (!Number.isFinite(qsc)) throw new RangeError(`spaceCharge(${v}) returned ${qsc}`);
     const qit = interfaceStateCharge_C_per_m2(barrier, input.bandGap_eV, input.neutralLevelAboveValence_eV, input.stateDensity_per_eV_m2, input.temperature_K);
     let qm = -(qsc + qit);
     let electrons = 0;
@@ -227,37 +237,39 @@ function alignmentResidual(input: InterfaceAlignmentInput): { evaluate: (v: numb
       qm = (-Q_ELEMENTARY_C * electrons) / particle.footprintArea_m2;
     }
     const residual = barrier - (input.metalWorkFunction_eV - shift - input.electronAffinity_eV + qm * layer);
-    return { residual, qsc, qit, qm, electrons, shift };
+    return { bandBending_eV: v, residual, qsc, qit, qm, electrons, shift };
   };
-  return { evaluate, count: () => evaluations };
 }
 
 /**
- * Bracket of the root: at the largest of the Schottky–Mott bending, the pinned bending and 0 every charge term is
- * >= 0, so R >= 0 there; symmetric at the smallest. Widened if the caller's Q_sc or the band-edge truncation of the
- * Fermi–Dirac interface states moves the neutral points by a little.
+ * Bounds of the root from the theory alone: at the largest of the Schottky–Mott bending, the pinned bending and 0
+ * every charge term is >= 0, so R >= 0 there; symmetric at the smallest (1e-3 eV margin).
  */
-function bracketBending(
-  input: InterfaceAlignmentInput,
-  evaluate: (v: number) => AlignmentState,
-  count: () => number,
-): { lo: number; hi: number; fLo: number; fHi: number } {
+function theoryBracket(input: InterfaceAlignmentInput): { lo: number; hi: number } {
   const xiBulk = input.fermiLevelBelowConduction_eV;
   const vSchottkyMott = input.metalWorkFunction_eV - input.electronAffinity_eV - xiBulk;
   const vPinned = input.bandGap_eV - input.neutralLevelAboveValence_eV - xiBulk;
-  let lo = Math.min(vSchottkyMott, vPinned, 0) - 1e-3;
-  let hi = Math.max(vSchottkyMott, vPinned, 0) + 1e-3;
-  let fLo = evaluate(lo).residual;
-  let fHi = evaluate(hi).residual;
+  return { lo: Math.min(vSchottkyMott, vPinned, 0) - 1e-3, hi: Math.max(vSchottkyMott, vPinned, 0) + 1e-3 };
+}
+
+/**
+ * Bracket of the root from evaluations at the theory bounds, widened if the caller's Q_sc or the band-edge
+ * truncation of the Fermi–Dirac interface states moves the neutral points by a little. `f` is R (evaluated or
+ * modelled). Throws ConvergenceError without a sign change.
+ */
+function bracketBending(input: InterfaceAlignmentInput, f: (v: number) => number, count: () => number): { lo: number; hi: number; fLo: number; fHi: number } {
+  let { lo, hi } = theoryBracket(input);
+  let fLo = f(lo);
+  let fHi = f(hi);
   let widen = 0;
   while (fLo > 0 && widen < 60) {
     lo -= Math.max(1, Math.abs(lo));
-    fLo = evaluate(lo).residual;
+    fLo = f(lo);
     widen++;
   }
   while (fHi < 0 && widen < 120) {
     hi += Math.max(1, Math.abs(hi));
-    fHi = evaluate(hi).residual;
+    fHi = f(hi);
     widen++;
   }
   if (!(fLo <= 0 && fHi >= 0)) {
@@ -267,24 +279,222 @@ function bracketBending(
 }
 
 /**
+ * A non-decreasing model of Q_sc(v) through the last evaluated charges, built on the stand-in E(v) and on v itself
+ * (Q_sc(0) = E(0) = 0; a planar support follows E, a particle much smaller than its space-charge layer the linear
+ * charge of a sphere's capacitance, a curved geometry something between):
+ *   none:  E(v)
+ *   one:   E(v) + (Q1 - E(v1)) v / v1 (the planar charge plus a linear excess), when that is non-decreasing; else
+ *          E(v) Q1/E(v1), else the constant Q1
+ *   two:   alpha E(v) + beta v through both (alpha, beta >= 0), else the secant in E (in v where E does not vary)
+ * Each is exact when Q_sc lies in its family, and the two-point model makes the iteration a secant method in that
+ * family: superlinear.
+ */
+function chargeModelThrough(estimate: (v: number) => number, points: readonly AlignmentState[]): (v: number) => number {
+  const n = points.length;
+  if (n === 0) return estimate;
+  const p1 = points[n - 1]!;
+  const v1 = p1.bandBending_eV;
+  const e1 = estimate(v1);
+  if (n === 1) {
+    const excess = v1 === 0 ? -1 : (p1.qsc - e1) / v1;
+    if (excess >= 0) return (v) => estimate(v) + excess * v;
+    if (e1 !== 0 && p1.qsc / e1 > 0) {
+      const ratio = p1.qsc / e1;
+      return (v) => ratio * estimate(v);
+    }
+    return () => p1.qsc;
+  }
+  const p0 = points[n - 2]!;
+  const v0 = p0.bandBending_eV;
+  const e0 = estimate(v0);
+  // alpha E + beta v through (v0, Q0) and (v1, Q1): Cramer's rule
+  const det = e0 * v1 - e1 * v0;
+  if (Math.abs(det) > 1e-9 * (Math.abs(e0 * v1) + Math.abs(e1 * v0))) {
+    const alpha = (p0.qsc * v1 - p1.qsc * v0) / det;
+    const beta = (e0 * p1.qsc - e1 * p0.qsc) / det;
+    if (alpha >= 0 && beta >= 0) return (v) => alpha * estimate(v) + beta * v;
+  }
+  const de = e1 - e0;
+  if (Math.abs(de) > 1e-9 * Math.max(Math.abs(e0), Math.abs(e1))) {
+    const a = Math.max(0, (p1.qsc - p0.qsc) / de);
+    return (v) => p1.qsc + a * (estimate(v) - e1);
+  }
+  const dv = v1 - v0;
+  const a = dv === 0 ? 0 : Math.max(0, (p1.qsc - p0.qsc) / dv);
+  return (v) => p1.qsc + a * (v - v1);
+}
+
+/** Root of the increasing R(v) in [lo, hi], or the end it lies beyond (no Poisson solve: `r` is cheap). */
+function cheapRoot(r: (v: number) => number, lo: number, hi: number, tolerance: number): number {
+  const fLo = r(lo);
+  if (fLo >= 0) return lo;
+  const fHi = r(hi);
+  if (fHi <= 0) return hi;
+  return brent(r, lo, hi, fLo, fHi, tolerance);
+}
+
+/** most evaluations of Q_sc (Poisson solves) before giving up; the old full-bracket Brent needed 7 to 15 */
+const MAX_EVALUATIONS = 60;
+
+/**
+ * The interface band bending: an evaluated point within the tolerance of the root, certified by the bracket. The
+ * bracket: R(v) = B(v) + c Q_sc(v) with B(v) = R(v) at Q_sc = 0 (cheap, slope >= 1) and c >= 0, so for the root
+ * v* and an evaluated v, R(v) - R(v*) = B(v) - B(v*) + c (Q_sc(v) - Q_sc(v*)) has the sign of v - v* and magnitude
+ * >= |B(v) - B(v*)|: v* lies between v and w = B^-1(B(v) - R(v)) (within |R(v)| of v, closer when B rises faster).
+ * Each evaluation (one call of the caller's spaceCharge) intersects the bracket with its own [w, v] or [v, w].
+ * Returned: the first evaluated v with |v - w| <= tolerance, or an evaluated end of a bracket no wider than it.
+ * Iterates:
+ *   1. V0 = root of R with Q_sc replaced by the stand-in (cheap).
+ *   2. Then the root of R with Q_sc replaced by chargeModelThrough the last one or two evaluations (cheap), inside
+ *      the bracket (and the theory bounds while they overlap it) and at least tolerance/2 from its evaluated ends;
+ *      bisection instead when two iterates have not halved the bracket (the safeguard of Brent, Algorithms for
+ *      Minimization without Derivatives, Prentice-Hall 1973, ch. 4). A secant method in the model family:
+ *      superlinear.
+ * Evaluations that contradict the bracket (a Q_sc that is not monotone, or noisy above the tolerance) hand over to
+ * rescue: Brent's method on evaluated signs only. The returned state is one of the evaluated ones (never evaluated
+ * twice). Throws ConvergenceError past MAX_EVALUATIONS or without a bracket.
+ */
+function solveBending(input: InterfaceAlignmentInput, tolerance: number): { root: AlignmentState; evaluations: number } {
+  const stateAt = alignmentState(input);
+  const evaluated: AlignmentState[] = [];
+  const count = (): number => evaluated.length;
+  const evaluate = (v: number): AlignmentState => {
+    const qsc = input.spaceCharge(v);
+    if (!Number.isFinite(qsc)) throw new RangeError(`spaceCharge(${v}) returned ${qsc}`);
+    const state = stateAt(v, qsc);
+    evaluated.push(state);
+    return state;
+  };
+  const given = input.spaceChargeEstimate;
+  const estimate = (v: number): number => {
+    if (given === undefined) return 0;
+    const q = given(v);
+    if (!Number.isFinite(q)) throw new RangeError(`spaceChargeEstimate(${v}) returned ${q}`);
+    return q;
+  };
+  const cheapTolerance = 1e-3 * tolerance;
+  const theory = theoryBracket(input);
+  const done = (root: AlignmentState): { root: AlignmentState; evaluations: number } => ({ root, evaluations: count() });
+  const withoutCharge = (x: number): number => stateAt(x, 0).residual; // B(x)
+  /** w = B^-1(B(v) - r), between v and v - r (B rises with slope >= 1), moved outward by the cheap tolerance */
+  const farBound = (v: number, r: number): number => {
+    const target = withoutCharge(v) - r;
+    const w = cheapRoot((x) => withoutCharge(x) - target, Math.min(v, v - r), Math.max(v, v - r), cheapTolerance);
+    return r > 0 ? Math.max(v - r, w - cheapTolerance) : Math.min(v - r, w + cheapTolerance);
+  };
+
+  // 1. V0 from the stand-in, bracketed by the theory bounds (cheap)
+  const standIn = (x: number): number => stateAt(x, estimate(x)).residual;
+  let v: number;
+  try {
+    const start = bracketBending(input, standIn, count);
+    v = brent(standIn, start.lo, start.hi, start.fLo, start.fHi, cheapTolerance);
+  } catch (error) {
+    if (!(error instanceof ConvergenceError)) throw error;
+    v = 0.5 * (theory.lo + theory.hi); // a stand-in that is not monotone: start anywhere, the bracket follows
+  }
+
+  let lo = -Infinity;
+  let hi = Infinity;
+  let loState: AlignmentState | null = null;
+  let hiState: AlignmentState | null = null;
+  const widths: number[] = [];
+  for (;;) {
+    if (count() >= MAX_EVALUATIONS) throw new ConvergenceError('evaluation limit for the interface band bending', count());
+    const s = evaluate(v);
+    const r = s.residual;
+    if (r === 0) return done(s);
+    // a sign contradicting a bound-derived end
+    if (r > 0 ? loState === null && v <= lo : hiState === null && v >= hi) return done(rescue(input, evaluate, count, evaluated, tolerance));
+    const w = farBound(v, r);
+    if (Math.abs(v - w) <= tolerance) return done(s);
+    if (r > 0) {
+      hi = v;
+      hiState = s;
+      if (w > lo) {
+        lo = w;
+        loState = null;
+      }
+    } else {
+      lo = v;
+      loState = s;
+      if (w < hi) {
+        hi = w;
+        hiState = null;
+      }
+    }
+    if (lo > hi) return done(rescue(input, evaluate, count, evaluated, tolerance));
+    const width = hi - lo;
+    if (width <= tolerance) {
+      const ends = [loState, hiState].filter((e): e is AlignmentState => e !== null);
+      if (ends.length > 0) return done(ends.reduce((x, y) => (Math.abs(y.residual) < Math.abs(x.residual) ? y : x)));
+      v = 0.5 * (lo + hi);
+      continue;
+    }
+    widths.push(width);
+    const twoBack = widths.length >= 3 ? widths[widths.length - 3]! : Infinity;
+    // iterates stay inside the theory bounds too while they overlap the bracket (a bound-derived end can lie far out)
+    const a = Math.max(lo, theory.lo);
+    const b = Math.min(hi, theory.hi);
+    const [searchLo, searchHi] = a < b ? [a, b] : [lo, hi];
+    if (width > 0.5 * twoBack) {
+      v = 0.5 * (searchLo + searchHi);
+      widths.length = 0;
+    } else {
+      const model = chargeModelThrough(estimate, evaluated.slice(-2));
+      v = cheapRoot((x) => stateAt(x, model(x)).residual, searchLo, searchHi, cheapTolerance);
+    }
+    // never within tolerance/2 of an evaluated end: the next evaluation then closes the bracket or meets the tolerance
+    if (hiState !== null) v = Math.min(v, hi - 0.5 * tolerance);
+    if (loState !== null) v = Math.max(v, lo + 0.5 * tolerance);
+  }
+}
+
+/**
+ * The evaluations contradict the bracket: Brent's method on the tightest sign change among the evaluated points,
+ * or, without one, on a bracket evaluated at the theory bounds (the scheme used before issue 13). Its result is
+ * always an evaluated point.
+ */
+function rescue(
+  input: InterfaceAlignmentInput,
+  evaluate: (v: number) => AlignmentState,
+  count: () => number,
+  evaluated: readonly AlignmentState[],
+  tolerance: number,
+): AlignmentState {
+  const residual = (v: number): number => evaluate(v).residual;
+  let below: AlignmentState | null = null;
+  let above: AlignmentState | null = null;
+  for (const e of evaluated) {
+    if (e.residual < 0 && (below === null || e.bandBending_eV > below.bandBending_eV)) below = e;
+    if (e.residual > 0 && (above === null || e.bandBending_eV < above.bandBending_eV)) above = e;
+  }
+  const { lo, hi, fLo, fHi } =
+    below !== null && above !== null && below.bandBending_eV < above.bandBending_eV
+      ? { lo: below.bandBending_eV, hi: above.bandBending_eV, fLo: below.residual, fHi: above.residual }
+      : bracketBending(input, residual, count);
+  const root = brent(residual, lo, hi, fLo, fHi, tolerance);
+  for (let k = evaluated.length - 1; k >= 0; k--) if (evaluated[k]!.bandBending_eV === root) return evaluated[k]!;
+  throw new RangeError('Brent returned a point it did not evaluate');
+}
+
+/**
  * Self-consistent barrier with interface states, interfacial layer and space charge (Cowley & Sze 1965):
  * solves Phi_B = phi_m - N/g_tot - chi + Q_m delta / (eps_i eps0), Q_m = -(Q_sc + Q_it) (extended contact) or
- * -q N / A_footprint (particle), for the band bending by Brent's method. Limits: D_it -> 0 or delta -> 0 gives the
- * Schottky–Mott rule; D_it -> infinity pins Phi_B at E_g - phi_0 (Bardeen); negligible Q_sc gives the linear
+ * -q N / A_footprint (particle), for the band bending (solveBending: usually 2 to 4 calls of spaceCharge, the
+ * returned band bending being one of them). Limits: D_it -> 0 or delta -> 0 gives the Schottky–Mott rule;
+ * D_it -> infinity pins Phi_B at E_g - phi_0 (Bardeen); negligible Q_sc gives the linear
  * Phi_B = S (phi_m - chi) + (1 - S)(E_g - phi_0). Throws InputError on bad input, ConvergenceError if the caller's
  * space charge is not monotone enough to bracket a root.
  */
 export function solveInterfaceAlignment(input: InterfaceAlignmentInput): InterfaceAlignment {
   checkAlignmentInput(input);
-  const { evaluate, count } = alignmentResidual(input);
-  const { lo, hi, fLo, fHi } = bracketBending(input, evaluate, count);
-  const root = brent((v) => evaluate(v).residual, lo, hi, fLo, fHi, input.tolerance_eV ?? 1e-12);
-  const state = evaluate(root);
+  const { root: state, evaluations } = solveBending(input, input.tolerance_eV ?? 1e-12);
   const layer = input.layerThickness_m / (input.layerPermittivity * EPS0_F_PER_M);
   const particle = input.particle;
   return {
-    electronBarrier_eV: input.fermiLevelBelowConduction_eV + root,
-    bandBending_eV: root,
+    electronBarrier_eV: input.fermiLevelBelowConduction_eV + state.bandBending_eV,
+    bandBending_eV: state.bandBending_eV,
     spaceCharge_C_per_m2: state.qsc,
     interfaceStateCharge_C_per_m2: state.qit,
     metalCharge_C_per_m2: state.qm,
@@ -294,13 +504,14 @@ export function solveInterfaceAlignment(input: InterfaceAlignmentInput): Interfa
       particle === undefined
         ? null
         : { electronsGained: state.electrons, fermiLevelShift_eV: state.shift, effectiveWorkFunction_eV: input.metalWorkFunction_eV - state.shift },
-    iterations: count(),
+    iterations: evaluations,
   };
 }
 
 /**
  * Brent's root finder (R. P. Brent, Algorithms for Minimization without Derivatives, Prentice-Hall 1973, ch. 4):
- * inverse quadratic interpolation / secant, safeguarded by bisection; needs f(a) f(b) <= 0.
+ * inverse quadratic interpolation / secant, safeguarded by bisection; needs f(a) f(b) <= 0. Returns a point at which
+ * f was evaluated (or a0 / b0).
  */
 function brent(f: (x: number) => number, a0: number, b0: number, fa0: number, fb0: number, tolerance: number): number {
   let a = a0;
@@ -363,6 +574,26 @@ function brent(f: (x: number) => number, a0: number, b0: number, fa0: number, fb
     fb = f(b);
   }
   throw new ConvergenceError('Brent iteration limit for the interface band bending', 200);
+}
+
+/**
+ * A spaceCharge for the alignment that keeps what each call computed (e.g. the Poisson solution, C/m^2 read from it
+ * by `charge`), so that the caller reuses it at the returned band bending, always one of the evaluated ones, instead
+ * of solving there again: `at(bandBending_eV)`.
+ */
+export function keepingEvaluations<S>(
+  solve: (bandBending_eV: number) => S,
+  charge: (solved: S) => number,
+): { spaceCharge: (bandBending_eV: number) => number; at: (bandBending_eV: number) => S | undefined } {
+  const kept = new Map<number, S>();
+  return {
+    spaceCharge: (v) => {
+      const solved = solve(v);
+      kept.set(v, solved);
+      return charge(solved);
+    },
+    at: (v) => kept.get(v),
+  };
 }
 
 /** D_it per eV per cm^2 -> per eV per m^2 (x 1e4); for callers reading values quoted in cm^-2 eV^-1. Input >= 0, finite. */
