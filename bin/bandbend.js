@@ -41,7 +41,7 @@ function bundleLoader() {
   function load(file) {
     const known = modules.get(file);
     if (known !== undefined) return known.exports;
-    const source = readFileSync(file, 'utf8');
+    const source = readFileSync(file, 'latin1'); // the build makes every chunk ASCII (src/cli/bundle.ts, checkAscii)
     let cachedData;
     try {
       cachedData = readFileSync(`${file}.v8cache`);
@@ -102,6 +102,13 @@ async function run() {
   return main(argv);
 }
 
-run().then((code) => {
+// Exit as soon as the command is done and nothing else is pending (no server, timer, worker or open file): Node's
+// natural exit would first wait for V8's background work (optimising compiles, GC tasks) of a run that has already
+// written everything (synchronously: src/cli/io.ts). A command with something still running (the explorer's
+// server) ends the natural way.
+function done(code) {
   process.exitCode = code;
-}, internalError);
+  if (process.getActiveResourcesInfo().length === 0) process.exit(code);
+}
+
+run().then(done, internalError);

@@ -19,7 +19,7 @@
 //
 // bin/bandbend.js runs the bundle when it is at least as new as dist/cli/main.js, else the unbundled CLI (after a
 // bare `tsc`), so a stale bundle never runs.
-import { existsSync, readdirSync, rmSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { rolldown } from 'rolldown';
@@ -145,6 +145,9 @@ export async function bundleCli(): Promise<void> {
   await bundle.write({
     dir: OUT_DIR,
     format: 'cjs',
+    // every non-ASCII character escaped: bin/bandbend.js reads the chunks as Latin-1 (no UTF-8 decoding, and V8 keeps
+    // one byte per character); checkAscii below fails the build if anything is left
+    charset: 'ascii',
     plugins: [launcherImport],
     // names shortened and whitespace removed, no other rewriting (so no arithmetic is re-associated): the core chunk
     // is about half the bytes to read and parse; the source map (dist/bundle/*.map) gives the names back
@@ -156,6 +159,16 @@ export async function bundleCli(): Promise<void> {
     codeSplitting: { groups: [{ name: 'core', test: (id: string) => CORE.test(id) }] },
   });
   await bundle.close();
+  checkAscii();
+}
+
+/** Every chunk is 7-bit ASCII (so reading it as Latin-1 in bin/bandbend.js gives exactly its UTF-8 text). */
+function checkAscii(): void {
+  for (const name of readdirSync(OUT_DIR).filter((f) => f.endsWith('.cjs'))) {
+    const bytes = readFileSync(`${OUT_DIR}${name}`);
+    const at = bytes.findIndex((b) => b > 0x7f);
+    if (at >= 0) throw new Error(`bundle: ${name} has a non-ASCII byte at offset ${at}`);
+  }
 }
 
 /**

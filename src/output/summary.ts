@@ -1,4 +1,5 @@
 // Terminal summary of one contact, plus the wording helpers shared by figures and reports (numbers: format.ts).
+import { isatty } from 'node:tty';
 import type { ContactResult, FlowDirection } from '../types.js';
 import { thermalEnergy_eV } from '../constants.js';
 import { stripControl } from './escape.js';
@@ -36,7 +37,8 @@ export interface SummaryOptions {
 
 /** Whether colour output is appropriate: the stream is a TTY and NO_COLOR is not set (https://no-color.org). */
 export function shouldUseColor(
-  stream: { isTTY?: boolean } = process.stdout,
+  // isatty(1) rather than process.stdout.isTTY: the stream object is not made just to ask (src/cli/io.ts writeToFd)
+  stream: { isTTY?: boolean } = { isTTY: isatty(1) },
   env: Record<string, string | undefined> = process.env,
 ): boolean {
   if (env.NO_COLOR !== undefined && env.NO_COLOR !== '') return false;
