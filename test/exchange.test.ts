@@ -9,6 +9,7 @@ import {
 } from '../src/derived/exchange.js';
 import {
   exchangeCurrentThroughProfile,
+  logFermiIntegral,
   forwardSlopeEnergy_eV,
   planarChargeOfBending,
   relativeCurrent,
@@ -179,6 +180,35 @@ describe('current-voltage law', () => {
 });
 
 describe('exchange current through the computed barrier', () => {
+  it('flat band (no barrier to tunnel through): A* T^2 ln(1 + e^(-Phi/kT)) exactly, Richardson–Dushman with Fermi–Dirac occupancy', () => {
+    // int_Phi^inf f(E) dE = kT ln(1 + e^(-Phi/kT)) (the integral of the Fermi function; Sze & Ng, Physics of
+    // Semiconductor Devices, 3rd ed., ch. 3 thermionic emission, before the Boltzmann approximation), so
+    // J0 = A* T^2 ln(1 + e^(-Phi/kT)) -> A* T^2 e^(-Phi/kT) for Phi >> kT. The code's upper limit Phi + 40 kT drops e^-40.
+    for (const [phi, T] of [[0.5, 300], [0.05, 300], [-0.02, 300], [1.2, 900], [3, 100]] as const) {
+      const x = [0, 10e-9, 20e-9];
+      const r = exchangeCurrentThroughProfile({ x_m: x, conductionBandAboveFermi_eV: [phi, phi, phi], massRatio: 0.5, temperature_K: T });
+      const kT = K_BOLTZMANN_EV_PER_K * T;
+      const lnExact = Math.log(richardsonConstant_A_per_m2_K2(0.5) * T * T) + Math.log(Math.log1p(Math.exp(-phi / kT)) - Math.log1p(Math.exp(-phi / kT - 40)));
+      expect(Math.abs(r.log10Current_A_per_m2 - lnExact / Math.LN10), `Phi ${phi} T ${T}`).toBeLessThan(1e-12);
+    }
+  });
+
+  it('logFermiIntegral: ln int_a^b dz/(1+e^z) against a fine Simpson rule and in the far tail (common practice, no source)', () => {
+    const simpsonFermi = (a: number, b: number): number => {
+      const n = 20000;
+      const h = (b - a) / n;
+      let sum = 1 / (1 + Math.exp(a)) + 1 / (1 + Math.exp(b));
+      for (let i = 1; i < n; i++) sum += (i % 2 === 1 ? 4 : 2) / (1 + Math.exp(a + i * h));
+      return Math.log((sum * h) / 3);
+    };
+    for (const [a, b] of [[-5, 5], [0, 40], [2, 3], [29, 69], [31, 71], [-40, -39]] as const) {
+      expect(Math.abs(logFermiIntegral(a, b) - simpsonFermi(a, b)), `${a}..${b}`).toBeLessThan(1e-9);
+    }
+    // far above E_F the integral is e^-a (1 - e^-(b-a)) to relative e^-a: finite in logs where e^-a underflows
+    expect(logFermiIntegral(2000, 2040)).toBeCloseTo(-2000 + Math.log1p(-Math.exp(-40)), 9);
+    expect(() => logFermiIntegral(1, 1)).toThrow(InputError);
+  });
+
   it('opaque barrier (flat 50 nm top): Richardson–Dushman A* T^2 exp(-Phi/kT) within 1%', () => {
     const x: number[] = [];
     const e: number[] = [];

@@ -165,6 +165,18 @@ export function relativeCurrent(bias_eV: number, kT_eV: number, slopeEnergy_eV: 
   return Math.sign(factor) * Math.exp(Math.min(logMagnitude, 690));
 }
 
+/**
+ * ln of the integral of the Fermi function over reduced energies, ln int_a^b dz / (1 + e^z) (a < b; z = E/kT), from
+ * its antiderivative -ln(1 + e^-z): softplus(-a) - softplus(-b). For a > 30 the difference is taken in logs,
+ * -a + ln(1 - e^-(b-a)), whose relative error is below e^-a < 1e-13, so it never underflows.
+ */
+export function logFermiIntegral(a: number, b: number): number {
+  if (!(b > a)) throw new InputError('b', `must exceed a = ${a}`, 'b > a');
+  if (a > 30) return -a + Math.log1p(-Math.exp(-(b - a)));
+  const softplusNeg = (z: number): number => (z < 0 ? -z + Math.log1p(Math.exp(z)) : Math.log1p(Math.exp(-z)));
+  return Math.log(softplusNeg(a) - softplusNeg(b));
+}
+
 export interface ProfileExchangeInput {
   /** depth into the support, m, ascending from the interface (0) to the bulk */
   x_m: ArrayLike<number>;
@@ -239,30 +251,33 @@ export function exchangeCurrentThroughProfile(input: ProfileExchangeInput): Prof
     return -kappaScale * integral;
   };
   // energy grid: from the bulk band edge (or 40 kT below E_F, where f ~ 1 and tunnelling from deep metal states is
-  // negligible against the transmission) to 40 kT above the barrier top; Gauss–Legendre on pieces of kT/2
-  // the transmission has a kink at the barrier top (T = 1 above): the two ranges are integrated separately
+  // negligible against the transmission) to 40 kT above the barrier top. Below the top: Gauss–Legendre on pieces of
+  // kT/2. Above it T = 1 and the integral of the Fermi function is exact (logFermiIntegral); the transmission's kink
+  // at the top is where the two parts meet.
   const lower = Math.max(bottom, Math.min(top, 0) - 40 * kT);
   const upper = top + 40 * kT;
   const below = Math.min(2000, Math.max(top > lower ? 8 : 0, Math.ceil((top - lower) / (0.5 * kT))));
-  const above = 80;
-  // accumulate sum exp(lnT - E/kT + ln f_rest) with a running maximum (log-sum-exp) so nothing underflows
+  // accumulate sum exp(term - logMax) with a running maximum (log-sum-exp) so nothing underflows
   let logMax = -Infinity;
   let scaled = 0;
-  for (let p = 0; p < below + above; p++) {
-    const width = p < below ? (top - lower) / below : (upper - top) / above;
-    const mid = p < below ? lower + (p + 0.5) * width : top + (p - below + 0.5) * width;
+  const add = (term: number): void => {
+    if (term > logMax) {
+      scaled = scaled * Math.exp(logMax - term) + 1;
+      logMax = term;
+    } else scaled += Math.exp(term - logMax);
+  };
+  const width = below > 0 ? (top - lower) / below : 0;
+  for (let p = 0; p < below; p++) {
+    const mid = lower + (p + 0.5) * width;
     for (let k = 0; k < 5; k++) {
       const e = mid + 0.5 * width * GL5_NODES[k]!;
       // ln f(E) = -softplus(E/kT)
       const z = e / kT;
       const logF = -(z > 0 ? z + Math.log1p(Math.exp(-z)) : Math.log1p(Math.exp(z)));
-      const term = logTransmission(e) + logF + Math.log(GL5_WEIGHTS[k]! * 0.5 * width);
-      if (term > logMax) {
-        scaled = scaled * Math.exp(logMax - term) + 1;
-        logMax = term;
-      } else scaled += Math.exp(term - logMax);
+      add(logTransmission(e) + logF + Math.log(GL5_WEIGHTS[k]! * 0.5 * width));
     }
   }
+  add(Math.log(kT) + logFermiIntegral(top / kT, upper / kT));
   // J0 = A* T^2 (1/kT) int T f dE
   const lnJ = Math.log(richardson) + 2 * Math.log(input.temperature_K) - Math.log(kT) + logMax + Math.log(scaled);
   const lnThermionic = Math.log(richardson) + 2 * Math.log(input.temperature_K) - Math.max(top, 0) / kT;
