@@ -24,6 +24,7 @@ import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { rolldown } from 'rolldown';
 import { parseAst } from 'rolldown/parseAst';
+import { writeBuiltinLibraryIndex } from '../materials/load.js';
 
 const DIST = fileURLToPath(new URL('../', import.meta.url));
 const OUT_DIR = fileURLToPath(new URL('../bundle/', import.meta.url));
@@ -187,4 +188,5 @@ export function warmCodeCache(): void {
 }
 
 await bundleCli();
+writeBuiltinLibraryIndex(); // dist/materials/builtin-index.json (src/materials/builtinIndex.ts), before the warm-up run
 warmCodeCache();

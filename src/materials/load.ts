@@ -18,9 +18,12 @@ import { InputError } from '../errors.js';
 import { MAX_INPUT_FILE_BYTES, readTextFile } from '../inputs/files.js';
 import type { CslItem, InputProvenance, MaterialsLibrary, MetalRecord, PropertyValue, SupportRecord } from './types.js';
 import { materialsSchemas, type MaterialsFile, type MetalEntry, type SupportEntry } from './schema.js';
+import { LazyRecordMap, readBuiltinIndex, writeBuiltinIndex, type BuiltinIndex } from './builtinIndex.js';
 
 const BUILTIN_DIR = new URL('../../materials/', import.meta.url);
 const BUILTIN_FILES = ['references.json', 'metals.json', 'supports.json'] as const;
+/** Index of the built-in files for lazy record parsing (src/materials/builtinIndex.ts), written by the build. */
+const BUILTIN_INDEX = new URL('../../dist/materials/builtin-index.json', import.meta.url);
 
 type Section = 'metals' | 'supports' | 'references';
 
@@ -238,8 +241,59 @@ function builtinFiles(): ParsedFile[] {
   return builtinFilesMemo;
 }
 
-/** The library shipped in materials/ (validated by the tests; records are frozen). */
+/** Write the index of the built-in files (`npm run build`, src/cli/bundle.ts); see src/materials/builtinIndex.ts. */
+export function writeBuiltinLibraryIndex(target: URL = BUILTIN_INDEX): void {
+  writeBuiltinIndex(BUILTIN_DIR, { references: 'references.json', metals: 'metals.json', supports: 'supports.json' }, target);
+}
+
+/** A function's value, computed once and deep-frozen (the records shared by every library built from the index). */
+function frozenOnce<T>(compute: () => T): () => T {
+  let done = false;
+  let value: T;
+  return () => {
+    if (!done) {
+      value = deepFreeze(compute());
+      done = true;
+    }
+    return value;
+  };
+}
+
+// Pure memo, like builtinFilesMemo: the index of the package's files, its records parsed and frozen at first use.
+let builtinIndexMemo: BuiltinIndex | null | undefined;
+
+/** The built-in library from the build's index, records parsed at first use; null without a current index. */
+function lazyBuiltinLibrary(index: URL = BUILTIN_INDEX): MaterialsLibrary | null {
+  if (builtinIndexMemo === undefined) {
+    const read = readBuiltinIndex(BUILTIN_DIR, index);
+    builtinIndexMemo =
+      read === null
+        ? null
+        : {
+            metals: read.metals.map(([names, parse]) => [names, frozenOnce(parse)]),
+            supports: read.supports.map(([names, parse]) => [names, frozenOnce(parse)]),
+            references: read.references.map(([id, parse]) => [id, frozenOnce(parse)]),
+          };
+  }
+  const i = builtinIndexMemo;
+  if (i === null) return null;
+  return {
+    metals: new LazyRecordMap(i.metals.map(([n, parse]) => [n.name, () => toMetal(parse() as MetalEntry)]), i.metals.map(([n]) => n)),
+    supports: new LazyRecordMap(i.supports.map(([n, parse]) => [n.name, () => toSupport(parse() as SupportEntry)]), i.supports.map(([n]) => n)),
+    references: new LazyRecordMap(i.references.map(([id, parse]) => [id, () => parse() as CslItem])),
+  };
+}
+
+/**
+ * The library shipped in materials/ (validated by the tests; records are frozen). Read through the build's index
+ * when it is current (records parsed at first use), else from the files.
+ */
 export function loadBuiltinLibrary(): MaterialsLibrary {
+  return lazyBuiltinLibrary() ?? buildLibrary(builtinFiles());
+}
+
+/** The built-in library from the files themselves (every record parsed at once); for tests of the index. */
+export function loadBuiltinLibraryFromFiles(): MaterialsLibrary {
   return buildLibrary(builtinFiles());
 }
 
@@ -255,6 +309,7 @@ function isFileList(materials: MaterialsLibrary | readonly string[]): materials 
 
 /** The built-in library plus user files (JSON or YAML) that add or replace entries, in the order given. */
 export function loadLibrary(extraFiles: string[] = []): MaterialsLibrary {
+  if (extraFiles.length === 0) return loadBuiltinLibrary();
   const user = extraFiles.map((path) => ({ label: path, data: parseMaterialsData(readDataFile(path, path), path) }));
   return buildLibrary([...builtinFiles(), ...user]);
 }
@@ -341,18 +396,20 @@ interface Named {
 
 function find<T extends Named>(kind: 'metal' | 'support', map: Map<string, T>, aliases: Readonly<Record<string, string>>, query: string): T {
   const q = normalize(query);
-  const byKey = [...map.values()].find((r) => normalize(r.name) === q);
-  if (byKey) return byKey;
+  // the names alone (a library from the build's index parses no record to look one up), else the records
+  const records: readonly Named[] = (map instanceof LazyRecordMap ? (map as LazyRecordMap<T>).recordNames() : undefined) ?? [...map.values()];
+  const byKey = records.find((r) => normalize(r.name) === q);
+  if (byKey) return map.get(byKey.name)!;
   const aliasTarget = Object.entries(aliases).find(([alias]) => normalize(alias) === q)?.[1];
   if (aliasTarget !== undefined && map.has(aliasTarget)) return map.get(aliasTarget)!;
-  const byName = [...map.values()].filter((r) => normalize(r.fullName) === q || (r.formula !== undefined && normalize(r.formula) === q));
-  if (byName.length === 1) return byName[0]!;
+  const byName = records.filter((r) => normalize(r.fullName) === q || (r.formula !== undefined && normalize(r.formula) === q));
+  if (byName.length === 1) return map.get(byName[0]!.name)!;
   if (byName.length > 1) {
     throw new InputError(kind, `"${query}" is ambiguous; say which: ${byName.map((r) => r.name).join(', ')}`);
   }
   // close matches: compare against every accepted spelling, report canonical keys
   const spellings: [string, string][] = [];
-  for (const r of map.values()) {
+  for (const r of records) {
     spellings.push([r.name, r.name], [r.fullName, r.name]);
     if (r.formula !== undefined) spellings.push([r.formula, r.name]);
   }
