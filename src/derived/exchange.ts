@@ -266,18 +266,27 @@ export function exchangeCurrentThroughProfile(input: ProfileExchangeInput): Prof
       logMax = term;
     } else scaled += Math.exp(term - logMax);
   };
+  add(Math.log(kT) + logFermiIntegral(top / kT, upper / kT));
+  // below the top, piece by piece downwards from the top. T(E) only falls with E (the forbidden stretch grows and
+  // E_C - E with it) and f <= 1, so everything below the lowest node done so far adds at most (its distance from
+  // `lower`) x T(that node): once that is under e^-40 (4e-18) of the sum, below the last bit of a double, the
+  // remaining pieces are skipped. Deep below the top they are the costly ones (longest forbidden stretches).
   const width = below > 0 ? (top - lower) / below : 0;
-  for (let p = 0; p < below; p++) {
+  for (let p = below - 1; p >= 0; p--) {
     const mid = lower + (p + 0.5) * width;
+    let lowestLogT = 0;
     for (let k = 0; k < 5; k++) {
       const e = mid + 0.5 * width * GL5_NODES[k]!;
       // ln f(E) = -softplus(E/kT)
       const z = e / kT;
       const logF = -(z > 0 ? z + Math.log1p(Math.exp(-z)) : Math.log1p(Math.exp(z)));
-      add(logTransmission(e) + logF + Math.log(GL5_WEIGHTS[k]! * 0.5 * width));
+      const logT = logTransmission(e);
+      lowestLogT = k === 0 ? logT : Math.min(lowestLogT, logT); // GL5_NODES[0] is the lowest node of the piece
+      add(logT + logF + Math.log(GL5_WEIGHTS[k]! * 0.5 * width));
     }
+    const skippedWidth = p * width;
+    if (skippedWidth > 0 && Math.log(skippedWidth) + lowestLogT < logMax + Math.log(scaled) - 40) break;
   }
-  add(Math.log(kT) + logFermiIntegral(top / kT, upper / kT));
   // J0 = A* T^2 (1/kT) int T f dE
   const lnJ = Math.log(richardson) + 2 * Math.log(input.temperature_K) - Math.log(kT) + logMax + Math.log(scaled);
   const lnThermionic = Math.log(richardson) + 2 * Math.log(input.temperature_K) - Math.max(top, 0) / kT;
