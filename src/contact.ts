@@ -301,9 +301,11 @@ function exchangeKinetics(c: SolvedContact, spaceCharge_C_per_m2: number): Excha
 }
 
 function relaxationAt(model: ChargeModel, xiBulk: number, bending_eV: number, eps: number, temperature_K: number, log10J0: number, e0: number): RelaxationTime {
+  const charge = planarChargeOfBending(model, xiBulk, eps, temperature_K);
   return relaxationTime99_s({
     equilibriumBending_eV: bending_eV,
-    chargeOfBending: planarChargeOfBending(model, xiBulk, eps, temperature_K),
+    chargeOfBending: charge,
+    capacitanceOfBending: charge.capacitance,
     log10ExchangeCurrent_A_per_m2: log10J0,
     temperature_K,
     slopeEnergy_eV: e0,

@@ -331,6 +331,21 @@ describe('planar charge of the band bending (the Q(V) of the relaxation)', () =>
     }
     expect(q(0)).toBe(0);
   });
+
+  it('its capacitance dQ/dV is the derivative of the closed form (Boltzmann; Sze & Ng, 3rd ed., ch. 4) to 1e-8, undefined at flat bands', () => {
+    const model = makeChargeModel(donorOnlySupport(300, 1e23, 'boltzmann'));
+    const bulk = solveBulkNeutrality(model);
+    const q = planarChargeOfBending(model, bulk.reducedFermiLevel, 8.5, 300);
+    const kT = model.kT_eV;
+    const n0 = bulk.electronDensity_m3;
+    const p0 = bulk.holeDensity_m3;
+    for (const u of [40.5, 1e-4, 0.25, 3, 7.3, -0.5, -2.7, -12]) {
+      // dQ/dV = eps eps0 k T N(u) / (Q kT_eV), N(u) = p0 (e^u - 1) - n0 (e^-u - 1): from Q^2 = 2 eps eps0 k T int N du
+      const exact = (8.5 * CODATA2018.eps0 * CODATA2018.k * 300 * (p0 * Math.expm1(u) - n0 * Math.expm1(-u))) / boltzmannPlanarCharge(n0, p0, u, 8.5, 300) / kT;
+      expect(Math.abs(q.capacitance(u * kT)! / exact - 1), `u = ${u}`).toBeLessThan(1e-8);
+    }
+    expect(q.capacitance(0)).toBeUndefined();
+  });
 });
 
 describe('relaxation time to 99% of the equilibrium charge', () => {

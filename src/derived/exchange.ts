@@ -311,7 +311,18 @@ const CHARGE_PIECE_kT = 0.5;
  * Boltzmann closed form in test/exchange.test.ts); values differ from the former per-call grid by rounding only.
  * For curved geometries pass your own Q(V) instead.
  */
-export function planarChargeOfBending(model: ChargeModel, bulkReducedFermiLevel: number, relativePermittivity: number, temperature_K: number): (bandBending_eV: number) => number {
+export interface ChargeOfBending {
+  /** Q(V), C/m^2 */
+  (bandBending_eV: number): number;
+  /**
+   * dQ/dV, C/(m^2 eV), exact from the same first integral: Q^2 = P int_0^u g, so dQ/du = P g(u) / (2 Q) with
+   * g(u) = N(xi_b - u) - N(xi_b) (one charge-model call besides Q); undefined at Q = 0 (flat bands), where the caller
+   * differentiates numerically.
+   */
+  capacitance(bandBending_eV: number): number | undefined;
+}
+
+export function planarChargeOfBending(model: ChargeModel, bulkReducedFermiLevel: number, relativePermittivity: number, temperature_K: number): ChargeOfBending {
   const out = new Float64Array(2);
   model.netCharge(bulkReducedFermiLevel, out);
   const residue = out[0]!;
@@ -329,7 +340,7 @@ export function planarChargeOfBending(model: ChargeModel, bulkReducedFermiLevel:
   };
   // running sums over whole pieces, for u > 0 ([0]) and u < 0 ([1]): sums[d][j] = int over the first j pieces
   const sums: [number[], number[]] = [[0], [0]];
-  return (bandBending_eV: number): number => {
+  const charge = (bandBending_eV: number): number => {
     const u = bandBending_eV / model.kT_eV;
     if (u === 0) return 0;
     const s = Math.sign(u);
@@ -342,6 +353,13 @@ export function planarChargeOfBending(model: ChargeModel, bulkReducedFermiLevel:
     const integral = s * (table[whole]! + (a > start ? piece(s, start, a) : 0));
     return s * Math.sqrt(prefactor * Math.max(0, integral));
   };
+  const capacitance = (bandBending_eV: number): number | undefined => {
+    const q = charge(bandBending_eV);
+    if (q === 0) return undefined;
+    model.netCharge(bulkReducedFermiLevel - bandBending_eV / model.kT_eV, out);
+    return (prefactor * (out[0]! - residue)) / (2 * q * model.kT_eV);
+  };
+  return Object.assign(charge, { capacitance });
 }
 
 export interface RelaxationInput {
@@ -349,6 +367,8 @@ export interface RelaxationInput {
   equilibriumBending_eV: number;
   /** Q(V): space charge per interface area (C/m^2) at band bending V (eV); monotone increasing, Q(0) = 0 */
   chargeOfBending: (bandBending_eV: number) => number;
+  /** dQ/dV, C/(m^2 eV), where known exactly (ChargeOfBending.capacitance); else Q is differentiated numerically */
+  capacitanceOfBending?: ((bandBending_eV: number) => number | undefined) | undefined;
   /** log10 of the exchange current J0 in A/m^2 (from exchangeCurrentThroughProfile or the thermionic J0) */
   log10ExchangeCurrent_A_per_m2: number;
   temperature_K: number;
@@ -386,7 +406,8 @@ export function relaxationTime99_s(input: RelaxationInput): RelaxationTime {
   const q = input.chargeOfBending;
   const qeq = q(veq);
   const dv = 1e-4 * Math.max(Math.abs(veq), kT);
-  const capacitanceAt = (v: number): number => (q(v + dv) - q(v - dv)) / (2 * dv * 1); // C/(m^2 eV) = C/(m^2 V) numerically
+  // C/(m^2 eV) = C/(m^2 V): exact where the caller knows it, else a central difference
+  const capacitanceAt = (v: number): number => input.capacitanceOfBending?.(v) ?? (q(v + dv) - q(v - dv)) / (2 * dv);
   const capEq = capacitanceAt(veq);
   const log10Tau = Math.log10(Math.max(capEq, 1e-300) * kT) - logJ0; // C kT/q / J0 with kT/q in volts = kT in eV
   if (veq === 0 || qeq === 0) return { seconds: 0, log10Seconds: -308, log10LinearTau_s: log10Tau };
