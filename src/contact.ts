@@ -27,6 +27,7 @@ import {
   planarChargeOfBending,
   relaxationTime99_s,
   tunnellingEnergy_eV,
+  type ChargeOfBending,
   type RelaxationTime,
 } from './derived/exchange.js';
 import { chargeEquivalentWidth_m, depletedChargeDensity_m3, depletionWidthApprox_m, sphericalDepletionWidth_m } from './derived/widths.js';
@@ -125,14 +126,17 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
       refinement: r.refinement,
     });
   };
+  // the Poisson solution at each band bending an alignment evaluates: its root is one of them
+  const solved = keepingEvaluations(solveAt, (p: PoissonSolution) => p.totalCharge_C / geometry.interfaceArea_m2);
+  // the planar first-integral Q(V): places the alignment's iterates (cheap; the Poisson solves decide convergence)
+  // and is the Q(V) of the relaxation time at this temperature (derivePhysics)
+  const planarCharge = planarChargeOfBending(model, bulk.reducedFermiLevel, s.permittivity, r.temperature_K);
   let barrier: BarrierResult;
   let bandBending_eV: number;
   let solution: PoissonSolution;
   let interfaceStates: (InterfaceAlignment & InterfaceStateParameters) | null = null;
   if (r.barrierModel === 'interface-states') {
     const params = interfaceParametersOf(r);
-    // the Poisson solution at each band bending the alignment evaluates: its root is one of them
-    const solved = keepingEvaluations(solveAt, (p: PoissonSolution) => p.totalCharge_C / geometry.interfaceArea_m2);
     // Bardeen / Cowley–Sze: the barrier, the interface-state charge and the space charge solved together
     interfaceStates = { ...params, ...solveInterfaceAlignment({
       ...params,
@@ -143,8 +147,7 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
       fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV,
       temperature_K: r.temperature_K,
       spaceCharge: solved.spaceCharge,
-      // the planar first integral places the iterates (cheap; the Poisson solves decide convergence)
-      spaceChargeEstimate: planarChargeOfBending(model, bulk.reducedFermiLevel, s.permittivity, r.temperature_K),
+      spaceChargeEstimate: planarCharge,
       tolerance_eV: 1e-9,
     }) };
     bandBending_eV = interfaceStates.bandBending_eV;
@@ -159,11 +162,10 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
   } else {
     // ideal rule at a finite particle: its Fermi level moves by N/g_tot with its charge (src/derived/finiteParticle.ts)
     const particle = r.barrierModel === 'ideal' ? finiteParticleTerm(r, geometry) : undefined;
-    const solved = keepingEvaluations(solveAt, (p: PoissonSolution) => p.totalCharge_C / geometry.interfaceArea_m2);
     const aligned = particle === undefined ? null : idealParticleAlignment({
       metalWorkFunction_eV, electronAffinity_eV: s.electronAffinity_eV, bandGap_eV: s.bandGap_eV, particle,
       fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV, spaceCharge: solved.spaceCharge,
-      spaceChargeEstimate: planarChargeOfBending(model, bulk.reducedFermiLevel, s.permittivity, r.temperature_K),
+      spaceChargeEstimate: planarCharge,
     });
     barrier = barrierHeight({
       model: r.barrierModel,
@@ -181,14 +183,14 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
     bandBending_eV = aligned === null ? barrier.electronBarrier_eV - bulk.fermiLevelBelowConduction_eV : aligned.bandBending_eV;
     solution = solved.at(bandBending_eV) ?? solveAt(bandBending_eV);
   }
-  const physics = derivePhysics({ r, model, bulk, barrier, nType, bandBending_eV, geometry, solution, interfaceStates });
+  const physics = derivePhysics({ r, model, bulk, barrier, nType, bandBending_eV, geometry, solution, interfaceStates }, planarCharge);
   return toContactResult(physics, evaluateWarnings(warningFacts(physics)));
 }
 
 type SolvedContact = Pick<ContactPhysics, 'r' | 'model' | 'bulk' | 'barrier' | 'nType' | 'bandBending_eV' | 'geometry' | 'solution' | 'interfaceStates'>;
 
-/** Every derived quantity of one solved contact, SI. */
-function derivePhysics(c: SolvedContact): ContactPhysics {
+/** Every derived quantity of one solved contact, SI; `planarCharge` is the planar Q(V) at the contact's temperature. */
+function derivePhysics(c: SolvedContact, planarCharge: ChargeOfBending): ContactPhysics {
   const { r, solution, geometry, nType } = c;
   const kT = c.model.kT_eV;
   const s = r.support;
@@ -221,7 +223,7 @@ function derivePhysics(c: SolvedContact): ContactPhysics {
     meanSpacing_m: meanSpacing,
     // neighbouring layers meet when the charge reaches half-way to the next particle
     zonesOverlap: meanSpacing !== null ? depth90_m > meanSpacing / 2 : null,
-    exchange: exchangeKinetics(c, spaceCharge),
+    exchange: exchangeKinetics(c, spaceCharge, planarCharge),
     imageForce: imageForceValidity(clamp(field_V_per_m, 1e12), clamp(s.opticalPermittivity, 1e3)),
   };
 }
@@ -261,7 +263,7 @@ const clamp = (x: number, max: number): number => Math.min(Math.abs(x), max);
  * can only overstate the time). The relaxation uses the planar Q(V) per interface area for every geometry.
  * `slow` only when neither temperature reaches equilibrium within the threshold. None for barriers above 20 eV.
  */
-function exchangeKinetics(c: SolvedContact, spaceCharge_C_per_m2: number): ExchangeKinetics | null {
+function exchangeKinetics(c: SolvedContact, spaceCharge_C_per_m2: number, planarCharge: ChargeOfBending): ExchangeKinetics | null {
   const barrier_eV = Math.max(0, c.barrier.barrierHeight_eV);
   if (barrier_eV > 20) return null;
   const { r, nType, solution } = c;
@@ -282,7 +284,7 @@ function exchangeKinetics(c: SolvedContact, spaceCharge_C_per_m2: number): Excha
     const through = exchangeCurrentThroughProfile({ x_m: solution.x_m, conductionBandAboveFermi_eV: barrierProfile, massRatio, temperature_K: r.temperature_K });
     log10Profile = through.log10Current_A_per_m2;
     enhancement = through.tunnellingEnhancement;
-    relaxation = relaxationAt(c.model, c.bulk.reducedFermiLevel, c.bandBending_eV, s.permittivity, r.temperature_K, log10Profile, slope(kT));
+    relaxation = relaxationAt(planarCharge, c.bandBending_eV, r.temperature_K, log10Profile, slope(kT));
   } catch {
     relaxation = null; // out of the validated ranges of the exchange functions: reported as null
   }
@@ -300,8 +302,8 @@ function exchangeKinetics(c: SolvedContact, spaceCharge_C_per_m2: number): Excha
   };
 }
 
-function relaxationAt(model: ChargeModel, xiBulk: number, bending_eV: number, eps: number, temperature_K: number, log10J0: number, e0: number): RelaxationTime {
-  const charge = planarChargeOfBending(model, xiBulk, eps, temperature_K);
+/** Relaxation to 99% through the planar Q(V) `charge` (planarChargeOfBending at `temperature_K`). */
+function relaxationAt(charge: ChargeOfBending, bending_eV: number, temperature_K: number, log10J0: number, e0: number): RelaxationTime {
   return relaxationTime99_s({
     equilibriumBending_eV: bending_eV,
     chargeOfBending: charge,
@@ -321,7 +323,8 @@ function historyRelaxation(c: SolvedContact, barrier_eV: number, massRatio: numb
     const bulk = solveBulkNeutrality(model);
     const bending_eV = c.barrier.electronBarrier_eV - bulk.fermiLevelBelowConduction_eV;
     const j0 = thermionicExchangeCurrent_A_per_m2({ massRatio, temperature_K: t, barrier_eV });
-    const time = relaxationAt(model, bulk.reducedFermiLevel, bending_eV, c.r.support.permittivity, t, j0.log10Current_A_per_m2, slope(model.kT_eV));
+    const charge = planarChargeOfBending(model, bulk.reducedFermiLevel, c.r.support.permittivity, t);
+    const time = relaxationAt(charge, bending_eV, t, j0.log10Current_A_per_m2, slope(model.kT_eV));
     return { temperature_K: t, time };
   } catch {
     return null;

@@ -263,9 +263,9 @@ function frozenOnce<T>(compute: () => T): () => T {
 let builtinIndexMemo: BuiltinIndex | null | undefined;
 
 /** The built-in library from the build's index, records parsed at first use; null without a current index. */
-function lazyBuiltinLibrary(index: URL = BUILTIN_INDEX): MaterialsLibrary | null {
+function lazyBuiltinLibrary(): MaterialsLibrary | null {
   if (builtinIndexMemo === undefined) {
-    const read = readBuiltinIndex(BUILTIN_DIR, index);
+    const read = readBuiltinIndex(BUILTIN_DIR, BUILTIN_INDEX);
     builtinIndexMemo =
       read === null
         ? null
