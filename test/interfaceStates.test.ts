@@ -178,6 +178,58 @@ describe('with the project Poisson solver as the space charge (how the pipeline 
   });
 });
 
+describe('charge-neutrality level above the CBM (In2O3-like; King et al., Phys. Rev. Lett. 101, 116808 (2008))', () => {
+  // In2O3-like numbers: gap 2.7 eV, CNL 0.4 eV above the CBM (King et al. 2008: CNL ~0.4 eV above the CBM), so
+  // phi_0 = 3.1 eV above E_V; states uniform on [E_V, 2 phi_0 - E_g] = [0, 3.5] eV
+  const GAP_IN = 2.7;
+  const PHI0 = 3.1;
+  it('Fermi–Dirac occupancy over the extended uniform band [0, 2 phi_0 - E_g]: closed form equals Simpson quadrature, and the states are neutral with E_F at phi_0', () => {
+    const d = 1e17;
+    const Tk = 600;
+    const kTh = (CODATA2018.k * Tk) / CODATA2018.q;
+    const top = 2 * PHI0 - GAP_IN;
+    for (const barrier of [-0.6, -0.4, -0.1, 0.3, 1.5]) {
+      const mu = GAP_IN - barrier;
+      const f = (e: number): number => 1 / (1 + Math.exp((e - mu) / kTh));
+      const ref = simpson((e) => 1 - f(e), 0, PHI0, 20000) - simpson(f, PHI0, top, 20000);
+      expect(interfaceStateCharge_C_per_m2(barrier, GAP_IN, PHI0, d, Tk) / (CODATA2018.q * d)).toBeCloseTo(ref, 8);
+    }
+    // zero temperature: linear through zero at E_F = phi_0 (barrier = E_g - phi_0 = -0.4 eV), slope q D (Cowley & Sze)
+    expect(interfaceStateCharge_C_per_m2(GAP_IN - PHI0, GAP_IN, PHI0, d)).toBe(0);
+    expect(interfaceStateCharge_C_per_m2(0.2, GAP_IN, PHI0, d) / (CODATA2018.q * d)).toBeCloseTo(0.2 - (GAP_IN - PHI0), 12);
+    // a level inside the gap keeps the band [0, E_g] (the pre-existing model, unchanged)
+    expect(interfaceStateCharge_C_per_m2(-0.5, GAP, 2.6, d) / (CODATA2018.q * d)).toBeCloseTo(2.6 - GAP, 12);
+  });
+
+  it('negligible space charge: Phi_B = S (phi_m - chi) + (1 - S)(E_g - phi_0), negative (accumulation) for a low work function (Cowley & Sze 1965)', () => {
+    const chi = 3.88;
+    for (const d of [1e17, 1e18]) {
+      for (const phiM of [4.0, 4.5, 5.65]) {
+        const r = solveInterfaceAlignment(base({ electronAffinity_eV: chi, bandGap_eV: GAP_IN, neutralLevelAboveValence_eV: PHI0, stateDensity_per_eV_m2: d, metalWorkFunction_eV: phiM, fermiLevelBelowConduction_eV: 0.05, spaceCharge: () => 0 }));
+        const S = 1 / (1 + (CODATA2018.q * d * 0.5e-9) / CODATA2018.eps0);
+        expect(Math.abs(r.electronBarrier_eV - (S * (phiM - chi) + (1 - S) * (GAP_IN - PHI0)))).toBeLessThan(1e-9);
+      }
+    }
+    const low = solveInterfaceAlignment(base({ electronAffinity_eV: chi, bandGap_eV: GAP_IN, neutralLevelAboveValence_eV: PHI0, stateDensity_per_eV_m2: 1e18, metalWorkFunction_eV: 4.0, fermiLevelBelowConduction_eV: 0.05, spaceCharge: () => 0 }));
+    expect(low.electronBarrier_eV).toBeLessThan(0);
+  });
+
+  it('with a real accumulating space charge (exact Boltzmann first integral, N_D 1e18 cm^-3): converges, charge balance holds, barrier between the pinned and Schottky–Mott values', () => {
+    const chi = 3.88;
+    const nd = 1e24;
+    const xi = kT * Math.log(NC / nd);
+    for (const phiM of [4.2, 5.1, 5.65]) {
+      const r = solveInterfaceAlignment(base({ electronAffinity_eV: chi, bandGap_eV: GAP_IN, neutralLevelAboveValence_eV: PHI0, metalWorkFunction_eV: phiM, fermiLevelBelowConduction_eV: xi, spaceCharge: planar(nd), temperature_K: T }));
+      expect(Number.isFinite(r.electronBarrier_eV)).toBe(true);
+      expect(r.metalCharge_C_per_m2 + r.spaceCharge_C_per_m2 + r.interfaceStateCharge_C_per_m2).toBeCloseTo(0, 12);
+      const lo = Math.min(phiM - chi, GAP_IN - PHI0) - 0.05;
+      const hi = Math.max(phiM - chi, GAP_IN - PHI0) + 0.05;
+      expect(r.electronBarrier_eV).toBeGreaterThan(lo);
+      expect(r.electronBarrier_eV).toBeLessThan(hi);
+    }
+  });
+});
+
 describe('interface-state charge and the slope/density relation', () => {
   it('Fermi–Dirac occupancy over a uniform density in the gap: closed form equals Simpson quadrature', () => {
     const d = 1e17;
@@ -223,7 +275,9 @@ describe('interface-state charge and the slope/density relation', () => {
 
   it('rejects bad input with InputError', () => {
     expect(() => solveInterfaceAlignment(base({ layerPermittivity: 0.5 }))).toThrow(/layerPermittivity/);
-    expect(() => solveInterfaceAlignment(base({ neutralLevelAboveValence_eV: 5 }))).toThrow(/neutralLevel/);
+    // allowed: 0 to E_g + 2 eV (3.37 + 2 here)
+    expect(() => solveInterfaceAlignment(base({ neutralLevelAboveValence_eV: 5.5 }))).toThrow(/neutralLevel/);
+    expect(() => solveInterfaceAlignment(base({ neutralLevelAboveValence_eV: -0.1 }))).toThrow(/neutralLevel/);
     expect(() => interfaceStateDensityFromSlope(0)).toThrow(/pinningFactor/);
   });
 });

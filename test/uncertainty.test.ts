@@ -60,11 +60,14 @@ describe('--uncertainty samples the inputs of interface states, localised states
     expectCovers(fields.get('localisedSites_m3')!, 2.51e28, 2.52e28, 'localisedSites_m3');
   });
 
-  it('a sampled charge-neutrality level never lies above the sampled gap (ZnO: CNL 2.6-3.4 eV, gap 3.3-3.437 eV)', () => {
+  it('a sampled charge-neutrality level is used as drawn, also above the sampled gap (ZnO: CNL 2.6-3.4 eV, gap 3.3-3.437 eV), and stays within E_g + 2 eV', () => {
+    // a level in the conduction band is physical (In2O3: King et al., Phys. Rev. Lett. 101, 116808 (2008)); the model
+    // accepts up to 2 eV above E_C (src/interface/interfaceStates.ts), so no ZnO draw is capped
     const { levels, gaps } = draws({ metal: 'Pt', support: 'ZnO' });
     expect(levels.length).toBe(DRAWS);
-    levels.forEach((l, i) => expect(l).toBeLessThanOrEqual(gaps[i]!));
-    expect(levels.some((l, i) => l === gaps[i])).toBe(true); // the cap is reached: the ranges overlap
+    levels.forEach((l, i) => expect(l).toBeLessThanOrEqual(gaps[i]! + 2));
+    expect(levels.some((l, i) => l > gaps[i]!)).toBe(true); // some draws lie above the CBM and are kept there
+    expect(Math.max(...levels)).toBeGreaterThan(3.35);
   });
 
   it('inputs the user gives are exact: no range for a given layer, interface-state density or planar particle', () => {

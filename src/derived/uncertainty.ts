@@ -4,6 +4,7 @@ import type { ResolvedContact } from '../inputs/contactInput.js';
 import { rowOfSample, type SampledField } from '../inputs/parameters.js';
 import type { ContactResult, FlowDirection, Percentiles, UncertaintySummary } from '../types.js';
 import { ConvergenceError, isModelFailure, requireInRange } from '../errors.js';
+import { neutralLevelRange_eV } from '../interface/interfaceStates.js';
 
 /** mulberry32: small, fast, seedable PRNG (common practice, no source); deterministic for a seed. */
 export function seededRandom(seed: number): () => number {
@@ -75,10 +76,11 @@ export function sampleInputs(base: ResolvedContact, random: () => number, ranges
     if (field in metal) metal[field] = value;
     else support[field] = value;
   }
-  // a sampled charge-neutrality level above the sampled gap is taken at the band edge, as the library caps it
+  // a sampled charge-neutrality level beyond the range the interface-state model accepts for the sampled gap (up to
+  // 2 eV above E_C) is taken at that limit
   const gap = support['bandGap_eV'] as number;
   const level = support['neutralLevelAboveValence_eV'] as number | undefined;
-  if (level !== undefined && level > gap) support['neutralLevelAboveValence_eV'] = gap;
+  if (level !== undefined) support['neutralLevelAboveValence_eV'] = Math.min(level, neutralLevelRange_eV(gap)[1]);
   return { ...base, metal: metal as unknown as ResolvedContact['metal'], support: support as unknown as ResolvedContact['support'] };
 }
 

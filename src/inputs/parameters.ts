@@ -21,7 +21,7 @@
 // Adding a numeric input: add the field (with @default) to ContactOptions, add its row, and use its SI value
 // (`values.get('yourOption')`) in the physics. Flag, help, study field, limits, provenance and sampling follow.
 import { requireInRange } from '../errors.js';
-import { DEFAULT_INTERFACE_LAYER_PERMITTIVITY, DEFAULT_INTERFACE_LAYER_THICKNESS_M } from '../interface/interfaceStates.js';
+import { DEFAULT_INTERFACE_LAYER_PERMITTIVITY, DEFAULT_INTERFACE_LAYER_THICKNESS_M, neutralLevelRange_eV } from '../interface/interfaceStates.js';
 import type { MetalRecord, PropertyValue, SupportRecord } from '../materials/types.js';
 import type { MaterialsLibrary } from '../materials/types.js';
 import type { QuantityInput, QuantityKind } from './units.js';
@@ -70,7 +70,7 @@ export interface ContactOptions {
   acceptorLevel?: QuantityInput;
   /** temperature, K if bare @default 300 K */
   temperature?: QuantityInput;
-  /** barrier model @default interface-states where the library has a charge-neutrality level inside the gap for the support, else ideal */
+  /** barrier model @default interface-states where the library has a charge-neutrality level for the support (in the gap or up to 2 eV above E_C), else ideal */
   barrierModel?: BarrierModel;
   /** pinning factor S (pinned and interface-states models) @default library value, else empirical from the optical permittivity */
   pinningFactor?: QuantityInput;
@@ -224,10 +224,13 @@ const plain = (limits: readonly [number, number]): Shape => ({ kind: 'quantity',
 const DENSITY_M3 = [0, 1e29] as const;
 const LEVEL_EV = [0, 10] as const;
 const MASS_ME = [0.01, 50] as const;
-function neutralLevelInGap(c: RowContext): boolean {
+/** the library's charge-neutrality level lies in the range the interface-state model accepts (gap, or up to 2 eV above E_C) */
+function neutralLevelUsable(c: RowContext): boolean {
   const level = c.records.support?.chargeNeutralityAboveValence_eV?.value;
   const gap = c.value('bandGap');
-  return level !== undefined && typeof gap === 'number' && level <= gap;
+  if (level === undefined || typeof gap !== 'number') return false;
+  const [lo, hi] = neutralLevelRange_eV(gap);
+  return level >= lo && level <= hi;
 }
 const INTERFACE_STATES = { test: (c: RowContext) => c.value('barrierModel') === 'interface-states', text: 'with --barrier-model interface-states' };
 const PERMITTIVITY = [1, 1e5] as const;
@@ -434,10 +437,10 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
     libraryLabel: (r) => `acceptor level (${r.support!.acceptor!.label})`,
   },
   barrierModel: {
-    flag: '--barrier-model <MODEL>', help: 'barrier model', defaultText: 'interface-states where the library has a charge-neutrality level inside the gap for the support, else ideal',
+    flag: '--barrier-model <MODEL>', help: 'barrier model', defaultText: 'interface-states where the library has a charge-neutrality level for the support (in the gap or up to 2 eV above E_C), else ideal',
     kind: 'choice', choices: ['interface-states', 'ideal', 'pinned', 'given'],
-    // the interface-state model needs the level inside the gap (In2O3's lies above the CBM: King et al. 2008)
-    fallback: { value: (c) => (neutralLevelInGap(c) ? 'interface-states' : 'ideal') },
+    // a level above the CBM (In2O3: King et al. 2008) is accepted up to 2 eV above E_C (src/interface/interfaceStates.ts)
+    fallback: { value: (c) => (neutralLevelUsable(c) ? 'interface-states' : 'ideal') },
   },
   pinningFactor: {
     flag: '--pinning-factor <S>', help: 'pinning factor S', defaultText: 'library value, else empirical from the optical permittivity',

@@ -19,6 +19,13 @@
 //   Q_it = q D_it (phi_0 - (E_F - E_V(0))) = q D_it (Phi_B - (E_g - phi_0))              (Cowley & Sze)
 //   (exact for a uniform density at any temperature while E_F stays a few kT inside the gap; here the states are
 //   confined to the gap and their Fermi–Dirac occupancy integrated in closed form when a temperature is given).
+//   A neutrality level above the CBM (In2O3, CdO, InN: the branch point lies in the conduction band, which is why
+//   their surfaces carry electron accumulation; King et al., Phys. Rev. Lett. 101, 116808 (2008)) is allowed up to
+//   MAX_NEUTRAL_LEVEL_ABOVE_CBM_eV above E_C: the uniform density then continues above E_C up to
+//   E_top = 2 phi_0 - E_g (as far above phi_0 as phi_0 lies above E_C; interfaceStateBandTop_eV), so the states stay
+//   neutral at E_F = phi_0, donor-like below it and acceptor-like above it, as the linear Cowley–Sze relation
+//   assumes. Below E_top the choice of E_top does not enter (zero-temperature step), and E_F at the interface stays
+//   below it for every contact whose barrier lies above -(phi_0 - E_g).
 // The residual R(V) = Phi_B(V) - phi_m + chi - Q_m(V) delta/(eps_i eps0) [+ particle term] is strictly increasing
 // in V (slope >= 1: every term is non-decreasing), so it has exactly one root, and one evaluation at any V0 brackets
 // it: the root lies between V0 and V0 - R(V0) (closer still, solveBending). Each evaluation costs the caller one
@@ -47,7 +54,7 @@ export const DEFAULT_INTERFACE_LAYER_PERMITTIVITY = 1;
 export interface InterfaceStateParameters {
   /** D_it, states per eV per m^2, uniform in the gap; 0 to 1e21 (= 1e17 cm^-2 eV^-1) */
   stateDensity_per_eV_m2: number;
-  /** phi_0: charge-neutrality level above the valence-band maximum, eV, 0..E_g (library `chargeNeutralityAboveValence_eV`) */
+  /** phi_0: charge-neutrality level above the valence-band maximum, eV, 0..E_g + 2 (above E_g: in the conduction band; library `chargeNeutralityAboveValence_eV`) */
   neutralLevelAboveValence_eV: number;
   /** delta, m, 0 to 10 nm (library `interfaceLayerThickness_nm`) */
   layerThickness_m: number;
@@ -55,9 +62,29 @@ export interface InterfaceStateParameters {
   layerPermittivity: number;
 }
 
+/**
+ * Highest charge-neutrality level above the CBM accepted, eV: 2 eV. Published branch points of oxides and nitrides
+ * with conduction-band accumulation lie 0.4 eV (In2O3; King et al. 2008, read) to about 1-1.5 eV (CdO, InN; from
+ * memory of King, Veal et al. and Schleife et al. 2009, verify) above the CBM; 2 eV leaves room for their ranges.
+ */
+export const MAX_NEUTRAL_LEVEL_ABOVE_CBM_eV = 2;
+
+/** Allowed range of the charge-neutrality level above E_V for gap E_g (eV): [0, E_g + MAX_NEUTRAL_LEVEL_ABOVE_CBM_eV]. */
+export function neutralLevelRange_eV(bandGap_eV: number): [number, number] {
+  return [0, bandGap_eV + MAX_NEUTRAL_LEVEL_ABOVE_CBM_eV];
+}
+
+/**
+ * Top of the uniform band of interface states above E_V, eV: E_g when phi_0 lies in the gap, else 2 phi_0 - E_g
+ * (the states continue as far above phi_0 as phi_0 lies above E_C; see the header). E_g > 0, phi_0 >= 0.
+ */
+export function interfaceStateBandTop_eV(bandGap_eV: number, neutralLevelAboveValence_eV: number): number {
+  return Math.max(bandGap_eV, 2 * neutralLevelAboveValence_eV - bandGap_eV);
+}
+
 function checkParameters(p: InterfaceStateParameters, bandGap_eV: number): void {
   requireInRange('stateDensity_per_eV_m2', p.stateDensity_per_eV_m2, 0, 1e21, 'eV^-1 m^-2');
-  requireInRange('neutralLevelAboveValence_eV', p.neutralLevelAboveValence_eV, 0, bandGap_eV, 'eV');
+  requireInRange('neutralLevelAboveValence_eV', p.neutralLevelAboveValence_eV, ...neutralLevelRange_eV(bandGap_eV), 'eV');
   requireInRange('layerThickness_m', p.layerThickness_m, 0, 1e-8, 'm');
   requireInRange('layerPermittivity', p.layerPermittivity, 1, 1000, '');
 }
@@ -96,9 +123,10 @@ function softplus(x: number): number {
 
 /**
  * Charge of the interface states, C/m^2, for an electron barrier Phi_B = E_C(0) - E_F (eV):
- *   T omitted: Q_it = q D_it (phi_0 - clamp(E_g - Phi_B, 0, E_g))   (zero-temperature occupancy, states in the gap)
- *   T given:   Q_it = q D_it [phi_0 + kT ln(1 + e^((mu - E_g)/kT)) - kT ln(1 + e^(mu/kT))],  mu = E_F - E_V(0) = E_g - Phi_B
- *   (Fermi–Dirac occupancy integrated exactly over a uniform density on [E_V, E_C]: int f dE = -kT ln(1 + e^((mu-E)/kT)).)
+ *   T omitted: Q_it = q D_it (phi_0 - clamp(E_g - Phi_B, 0, E_top))   (zero-temperature occupancy)
+ *   T given:   Q_it = q D_it [phi_0 + kT ln(1 + e^((mu - E_top)/kT)) - kT ln(1 + e^(mu/kT))],  mu = E_F - E_V(0) = E_g - Phi_B
+ *   (Fermi–Dirac occupancy integrated exactly over a uniform density on [E_V, E_top]: int f dE = -kT ln(1 + e^((mu-E)/kT));
+ *   E_top = interfaceStateBandTop_eV, = E_g while phi_0 lies in the gap.)
  * Positive when E_F lies below the neutrality level (empty donor-like states). Non-decreasing in Phi_B.
  */
 export function interfaceStateCharge_C_per_m2(
@@ -110,12 +138,13 @@ export function interfaceStateCharge_C_per_m2(
 ): number {
   if (stateDensity_per_eV_m2 === 0) return 0;
   const mu = bandGap_eV - electronBarrier_eV;
+  const top = interfaceStateBandTop_eV(bandGap_eV, neutralLevelAboveValence_eV);
   let occupiedBelowMinusNeutral: number;
   if (temperature_K === undefined) {
-    occupiedBelowMinusNeutral = neutralLevelAboveValence_eV - Math.min(Math.max(mu, 0), bandGap_eV);
+    occupiedBelowMinusNeutral = neutralLevelAboveValence_eV - Math.min(Math.max(mu, 0), top);
   } else {
     const kT = thermalEnergy_eV(temperature_K);
-    occupiedBelowMinusNeutral = neutralLevelAboveValence_eV + kT * softplus((mu - bandGap_eV) / kT) - kT * softplus(mu / kT);
+    occupiedBelowMinusNeutral = neutralLevelAboveValence_eV + kT * softplus((mu - top) / kT) - kT * softplus(mu / kT);
   }
   return Q_ELEMENTARY_C * stateDensity_per_eV_m2 * occupiedBelowMinusNeutral;
 }
