@@ -462,3 +462,24 @@ describe('in the pipeline: Pt on ZnO, N_D 1e17 cm^-3, 473 K (the default barrier
     }
   });
 });
+
+describe('in the pipeline: In2O3, whose charge-neutrality level lies above the CBM (King et al., Phys. Rev. Lett. 101, 116808 (2008))', () => {
+  it('the library level (0.4 eV above the CBM) makes interface-states the default model; the planar barrier lies between the pinned level E_g - phi_0 < 0 and Schottky–Mott, and the Poisson charge closes the neutrality', () => {
+    for (const metal of ['Pt', 'Au', 'Ag']) {
+      const r = resolveContact({ metal, support: 'In2O3' });
+      expect(r.barrierModel, metal).toBe('interface-states');
+      expect(r.support.neutralLevelAboveValence_eV!).toBeGreaterThan(r.support.bandGap_eV);
+      const res = solveContact({ metal, support: 'In2O3' });
+      const states = res.interfaceStates!;
+      const pinned = r.support.bandGap_eV - r.support.neutralLevelAboveValence_eV!;
+      const schottkyMott = r.metal.workFunction_eV - r.support.electronAffinity_eV;
+      expect(res.barrierHeight_eV).toBeGreaterThan(Math.min(pinned, schottkyMott) - 0.05); // n-type: the electron barrier
+      expect(res.barrierHeight_eV).toBeLessThan(Math.max(pinned, schottkyMott) + 0.05);
+      expect(Math.abs(res.spaceCharge_C_per_m2 + states.metalCharge_C_per_m2 + states.interfaceStateCharge_C_per_m2)).toBeLessThan(1e-12);
+    }
+  });
+
+  it('a given level more than 2 eV above the CBM is refused naming the field, with the allowed range', () => {
+    expect(() => solveContact({ metal: 'Pt', support: 'In2O3', neutralLevelAboveValence: 5 })).toThrow(/neutralLevelAboveValence.*0 to 4\.7/);
+  });
+});
