@@ -178,6 +178,16 @@ describe('with the project Poisson solver as the space charge (how the pipeline 
   });
 });
 
+/**
+ * Q_it / (q D_it) for a uniform density of states on [0, top] (eV above E_V) with Fermi–Dirac occupancy at E_F = mu
+ * above E_V: (empty states below phi_0) - (filled states above phi_0), by Simpson quadrature (the reference for the
+ * closed form of interfaceStateCharge_C_per_m2).
+ */
+function occupancyByQuadrature(mu: number, kTh: number, phi0: number, top: number): number {
+  const f = (e: number): number => 1 / (1 + Math.exp((e - mu) / kTh));
+  return simpson((e) => 1 - f(e), 0, phi0, 20000) - simpson(f, phi0, top, 20000);
+}
+
 describe('charge-neutrality level above the CBM (In2O3-like; King et al., Phys. Rev. Lett. 101, 116808 (2008))', () => {
   // In2O3-like numbers: gap 2.7 eV, CNL 0.4 eV above the CBM (King et al. 2008: CNL ~0.4 eV above the CBM), so
   // phi_0 = 3.1 eV above E_V; states uniform on [E_V, 2 phi_0 - E_g] = [0, 3.5] eV
@@ -189,9 +199,7 @@ describe('charge-neutrality level above the CBM (In2O3-like; King et al., Phys. 
     const kTh = (CODATA2018.k * Tk) / CODATA2018.q;
     const top = 2 * PHI0 - GAP_IN;
     for (const barrier of [-0.6, -0.4, -0.1, 0.3, 1.5]) {
-      const mu = GAP_IN - barrier;
-      const f = (e: number): number => 1 / (1 + Math.exp((e - mu) / kTh));
-      const ref = simpson((e) => 1 - f(e), 0, PHI0, 20000) - simpson(f, PHI0, top, 20000);
+      const ref = occupancyByQuadrature(GAP_IN - barrier, kTh, PHI0, top);
       expect(interfaceStateCharge_C_per_m2(barrier, GAP_IN, PHI0, d, Tk) / (CODATA2018.q * d)).toBeCloseTo(ref, 8);
     }
     // zero temperature: linear through zero at E_F = phi_0 (barrier = E_g - phi_0 = -0.4 eV), slope q D (Cowley & Sze)
@@ -236,10 +244,7 @@ describe('interface-state charge and the slope/density relation', () => {
     const Tk = 900;
     const kTh = (CODATA2018.k * Tk) / CODATA2018.q;
     for (const barrier of [-0.1, 0.02, 0.7, 1.6, 3.3, 3.45]) {
-      const mu = GAP - barrier; // E_F - E_V(0)
-      const f = (e: number): number => 1 / (1 + Math.exp((e - mu) / kTh));
-      // Q/qD = (empty states below phi_0) - (filled states above phi_0)
-      const ref = simpson((e) => 1 - f(e), 0, 2.6, 20000) - simpson(f, 2.6, GAP, 20000);
+      const ref = occupancyByQuadrature(GAP - barrier, kTh, 2.6, GAP);
       expect(interfaceStateCharge_C_per_m2(barrier, GAP, 2.6, d, Tk) / (CODATA2018.q * d)).toBeCloseTo(ref, 8);
     }
     // zero temperature: q D (Phi_B - (E_g - phi_0)) inside the gap
