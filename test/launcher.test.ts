@@ -87,6 +87,18 @@ describe('standard streams', () => {
     expect(readFileSync(errFile, 'utf8')).toBe('');
   });
 
+  it('help text meeting a reader that has gone ends quietly too (`bandbend contact --help | head -1`)', () => {
+    // the help text is written by the argument parser, not by the command: same rule (common practice, no source)
+    const errFile = join(mkdtempSync(join(tmpdir(), 'bandbend-pipe-')), 'stderr.txt');
+    made.push(join(errFile, '..'));
+    for (const args of [['contact', '--help'], ['--help'], ['--version']]) {
+      const script = `set -o pipefail; "${process.execPath}" bin/bandbend.js ${args.join(' ')} 2>"$ERR_FILE" | true`;
+      const r = spawnSync('bash', ['-c', script], { cwd: ROOT, env: { ...process.env, ERR_FILE: errFile }, encoding: 'utf8', timeout: 120_000 });
+      expect(r.status).toBe(0);
+      expect(readFileSync(errFile, 'utf8')).toBe('');
+    }
+  });
+
   it('bad input still gives one line on stderr and exit 2', () => {
     const r = runBandbend(['contact', '--metal', 'Pt', '--support', 'ZnO', '--temperature', '-5 K']);
     expect(r.code).toBe(2);

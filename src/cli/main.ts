@@ -4,7 +4,7 @@ import type { Command as CommandType } from 'commander';
 import { Command, CommanderError } from './commander.js';
 import { InputError, ConvergenceError } from '../errors.js';
 import { stripTerminalControl } from '../output/escape.js';
-import { writeToFd, STDERR_FD } from './io.js';
+import { writeToFd, STDERR_FD, STDOUT_FD } from './io.js';
 import { registerContact } from './contact.js';
 import { registerScreen } from './screen.js';
 import { registerStudyCommand } from './study.js';
@@ -51,6 +51,9 @@ export function errorLine(message: string, suffix = ''): string {
 export async function main(argv: string[]): Promise<number> {
   const program = buildProgram(argv);
   const output = {
+    // help and version text through the same writer as every other output: a reader that has gone (`--help | head`)
+    // ends the output silently instead of an unhandled EPIPE on process.stdout
+    writeOut: (text: string) => writeToFd(STDOUT_FD, text),
     writeErr: (text: string) => writeToFd(STDERR_FD, stripTerminalControl(text, true)),
     // commander's usage errors ("error: unknown option '--x'") in the same one-line form as every other error
     outputError: (text: string) => writeToFd(STDERR_FD, errorLine(text.replace(/^error:\s*/, ''), ' (run with --help for usage)')),
