@@ -31,7 +31,7 @@ import {
   type RelaxationTime,
 } from './derived/exchange.js';
 import { chargeEquivalentWidth_m, depletedChargeDensity_m3, depletionWidthApprox_m, sphericalDepletionWidth_m } from './derived/widths.js';
-import { devonshirePermittivity, imageForceValidity } from './electrostatics/permittivity.js';
+import { devonshirePermittivity, dielectricLaw, differentialPermittivity, imageForceValidity, isLinear, type DielectricLaw } from './electrostatics/permittivity.js';
 import {
   chargeDepth_m,
   electronsPerParticle,
@@ -104,6 +104,14 @@ export function interfaceParametersOf(r: ResolvedContact): InterfaceStateParamet
   };
 }
 
+/**
+ * The support's dielectric: linear with the static permittivity, or field-dependent (Landau–Devonshire) when the
+ * support has a nonlinearity beta, on the optical permittivity as background (src/electrostatics/permittivity.ts).
+ */
+export function supportDielectric(s: ResolvedContact['support']): DielectricLaw {
+  return dielectricLaw(s.permittivity, s.opticalPermittivity, s.permittivityNonlinearity_V_m5_per_C3);
+}
+
 /** Solve one contact from resolved SI inputs (used by studies and uncertainty sampling). */
 export function solveResolved(resolved: ResolvedContact): ContactResult {
   const r = withVacancyDonors(resolved); // a sampled reduction enthalpy/entropy changes the vacancy donors
@@ -113,6 +121,7 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
   const nType = bulk.electronDensity_m3 >= bulk.holeDensity_m3;
   const geometry = GEOMETRIES[r.geometry](r);
   const metalWorkFunction_eV = particleWorkFunction_eV(r);
+  const dielectric = supportDielectric(s);
   const solveAt = (bandBending_eV: number): PoissonSolution => {
     checkBandBending(bandBending_eV);
     return solvePoisson({
@@ -120,6 +129,7 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
       bulkReducedFermiLevel: bulk.reducedFermiLevel,
       surfaceBending: bandBending_eV / model.kT_eV,
       relativePermittivity: s.permittivity,
+      dielectric,
       temperature_K: r.temperature_K,
       geometry,
       thickness_m: r.supportThickness_m,
@@ -130,7 +140,7 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
   const solved = keepingEvaluations(solveAt, (p: PoissonSolution) => p.totalCharge_C / geometry.interfaceArea_m2);
   // the planar first-integral Q(V): places the alignment's iterates (cheap; the Poisson solves decide convergence)
   // and is the Q(V) of the relaxation time at this temperature (derivePhysics)
-  const planarCharge = planarChargeOfBending(model, bulk.reducedFermiLevel, s.permittivity, r.temperature_K);
+  const planarCharge = planarChargeOfBending(model, bulk.reducedFermiLevel, s.permittivity, r.temperature_K, dielectric);
   let barrier: BarrierResult;
   let bandBending_eV: number;
   let solution: PoissonSolution;
@@ -208,6 +218,7 @@ function derivePhysics(c: SolvedContact, planarCharge: ChargeOfBending): Contact
     kT_eV: kT,
     spaceCharge_C_per_m2: spaceCharge,
     interfaceField_V_per_m: field_V_per_m,
+    interfacePermittivity: differentialPermittivity(supportDielectric(s), clamp(field_V_per_m, 1e11)),
     electronsPerParticle: electronsPerParticle(partnerCharge_C, geometry),
     chargeEquivalentWidth_m: chargeEquivalentWidth_m({ ...dopants, charge_C: solution.totalCharge_C, geometry }),
     depletionWidthApprox_m: depletionWidthApprox_m(depletion),
@@ -323,7 +334,7 @@ function historyRelaxation(c: SolvedContact, barrier_eV: number, massRatio: numb
     const bulk = solveBulkNeutrality(model);
     const bending_eV = c.barrier.electronBarrier_eV - bulk.fermiLevelBelowConduction_eV;
     const j0 = thermionicExchangeCurrent_A_per_m2({ massRatio, temperature_K: t, barrier_eV });
-    const charge = planarChargeOfBending(model, bulk.reducedFermiLevel, c.r.support.permittivity, t);
+    const charge = planarChargeOfBending(model, bulk.reducedFermiLevel, c.r.support.permittivity, t, supportDielectric(c.r.support));
     const time = relaxationAt(charge, bending_eV, t, j0.log10Current_A_per_m2, slope(model.kT_eV));
     return { temperature_K: t, time };
   } catch {
@@ -381,6 +392,7 @@ function warningFacts(p: ContactPhysics): WarningFacts {
     surfaceAtoms: p.atoms?.surfaceAtoms ?? null,
     interfaceField_V_per_m: p.interfaceField_V_per_m,
     staticPermittivity: r.support.permittivity,
+    permittivityFieldDependent: !isLinear(supportDielectric(r.support)),
     fieldPermittivity: p.interfaceField_V_per_m !== 0 && r.support.permittivity > 50 ? devonshirePermittivity(clamp(p.interfaceField_V_per_m, 1e11), Math.min(r.support.permittivity, 1e5), SRTIO3_LIKE_BETA) : null,
     imageForceMaximum_m: p.imageForce.maximumDistance_m,
     imageForceValid: p.imageForce.valid,

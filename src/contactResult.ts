@@ -42,6 +42,8 @@ export interface ContactPhysics {
   solution: PoissonSolution;
   spaceCharge_C_per_m2: number;
   interfaceField_V_per_m: number;
+  /** (1/eps0) dD/dE of the support at the interface field (the static permittivity for a linear dielectric) */
+  interfacePermittivity: number;
   electronsPerParticle: number;
   chargeEquivalentWidth_m: number | null;
   depletionWidthApprox_m: number | null;
@@ -106,6 +108,8 @@ export function toContactResult(p: ContactPhysics, warnings: Warning[]): Contact
     ...headlineWidth(p),
     debyeLength_nm: nmOrNull(debyeLengthOrNull(solution.debyeLength_m)),
     interfaceField_V_per_m: p.interfaceField_V_per_m,
+    interfacePermittivity: p.interfacePermittivity,
+    permittivityNonlinearity_V_m5_per_C3: s.permittivityNonlinearity_V_m5_per_C3,
     imageForceLowering_eV: imageForceLowering_eV(p.interfaceField_V_per_m, s.opticalPermittivity),
     imageForceMaximum_nm: p.imageForce.maximumDistance_m * NM_PER_M,
     imageForceContinuumValid: p.imageForce.valid,

@@ -170,6 +170,13 @@ export interface ContactResult {
   /** bulk Debye length; null where it is undefined (nothing screens), with a `debye-undefined` warning */
   debyeLength_nm: number | null;
   interfaceField_V_per_m: number;
+  /**
+   * differential relative permittivity of the support at the interface field, (1/eps0) dD/dE: the static value for a
+   * linear dielectric; lower where a field-dependent (paraelectric) support is polarised to saturation
+   */
+  interfacePermittivity: number;
+  /** quartic Landau coefficient of the support used in the solve, V m^5 C^-3 (0: linear dielectric) */
+  permittivityNonlinearity_V_m5_per_C3: number;
   imageForceLowering_eV: number;
   /** distance of the image-force barrier maximum from the metal, nm */
   imageForceMaximum_nm: number;

@@ -5,6 +5,7 @@ import { EPS0_F_PER_M, H_PLANCK_J_S, K_BOLTZMANN_J_PER_K, M_ELECTRON_KG, Q_ELEME
 import { ConvergenceError, InputError, requireInRange } from '../errors.js';
 import type { ChargeModel } from '../bulk/equilibrium.js';
 import { GL5_NODES, GL5_WEIGHTS } from '../electrostatics/gaussLegendre.js';
+import { displacementOfField, fieldOfDisplacement, fieldOfEnergyDensity, isLinear, type DielectricLaw } from '../electrostatics/permittivity.js';
 
 /** One hour: exchange slower than this is unlikely to equilibrate during a typical pretreatment or test. */
 export const SLOW_EXCHANGE_THRESHOLD_S = 3600;
@@ -309,7 +310,9 @@ const CHARGE_PIECE_kT = 0.5;
  * so a call costs one partial piece (5 charge-model calls) instead of a whole quadrature from 0: the relaxation
  * time asks for Q about 450 times. Accuracy as before (the same rule on pieces of the same width; against the
  * Boltzmann closed form in test/exchange.test.ts); values differ from the former per-call grid by rounding only.
- * For curved geometries pass your own Q(V) instead.
+ * For curved geometries pass your own Q(V) instead. With a field-dependent dielectric (`dielectric`, zero-field value
+ * relativePermittivity) the same integral is the field energy W(E_s) = kT int g and Q = D(E_s) (src/electrostatics/
+ * permittivity.ts); dQ/dV = q g / E_s.
  */
 export interface ChargeOfBending {
   /** Q(V), C/m^2 */
@@ -322,7 +325,15 @@ export interface ChargeOfBending {
   capacitance(bandBending_eV: number): number | undefined;
 }
 
-export function planarChargeOfBending(model: ChargeModel, bulkReducedFermiLevel: number, relativePermittivity: number, temperature_K: number): ChargeOfBending {
+export function planarChargeOfBending(
+  model: ChargeModel,
+  bulkReducedFermiLevel: number,
+  relativePermittivity: number,
+  temperature_K: number,
+  dielectric?: DielectricLaw,
+): ChargeOfBending {
+  const law = dielectric !== undefined && !isLinear(dielectric) ? dielectric : null;
+  const thermal_J = K_BOLTZMANN_J_PER_K * temperature_K;
   const out = new Float64Array(2);
   model.netCharge(bulkReducedFermiLevel, out);
   const residue = out[0]!;
@@ -351,12 +362,19 @@ export function planarChargeOfBending(model: ChargeModel, bulkReducedFermiLevel:
     const start = whole * CHARGE_PIECE_kT;
     // int_0^u g dv = s int_0^|u| g(s t) dt
     const integral = s * (table[whole]! + (a > start ? piece(s, start, a) : 0));
+    if (law !== null) return s * displacementOfField(law, fieldOfEnergyDensity(law, thermal_J * Math.max(0, integral)));
     return s * Math.sqrt(prefactor * Math.max(0, integral));
   };
   const capacitance = (bandBending_eV: number): number | undefined => {
     const q = charge(bandBending_eV);
     if (q === 0) return undefined;
     model.netCharge(bulkReducedFermiLevel - bandBending_eV / model.kT_eV, out);
+    if (law !== null) {
+      // dQ/du = (dD/dW) (dW/du) = (1 / E_s) kT g, i.e. per eV of bending q g / E_s, with E_s = E(D = Q)
+      const field = Math.abs(fieldOfDisplacement(law, q));
+      // g has the sign of Q (depletion and accumulation alike), so the capacitance is positive, as in the linear case
+      return field > 0 ? (Q_ELEMENTARY_C * Math.abs(out[0]! - residue)) / field : undefined;
+    }
     return (prefactor * (out[0]! - residue)) / (2 * q * model.kT_eV);
   };
   return Object.assign(charge, { capacitance });

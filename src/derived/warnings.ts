@@ -52,6 +52,8 @@ export interface WarningFacts {
   atoms: number | null;
   surfaceAtoms: number | null;
   interfaceField_V_per_m: number;
+  /** the solve used a field-dependent (Landau–Devonshire) dielectric */
+  permittivityFieldDependent: boolean;
   /** static relative permittivity used in the solve */
   staticPermittivity: number;
   /** Devonshire estimate of the permittivity at the interface field (null unless eps > 50) */
@@ -221,11 +223,12 @@ export const WARNING_RULES: readonly WarningRule[] = [
   },
   {
     code: 'field-dependent-permittivity',
-    applies: (f) => f.staticPermittivity > HIGH_PERMITTIVITY && Math.abs(f.interfaceField_V_per_m) > HIGH_FIELD_V_PER_M,
+    // not when the solve already used a field-dependent dielectric (--permittivity-nonlinearity / library beta)
+    applies: (f) => !f.permittivityFieldDependent && f.staticPermittivity > HIGH_PERMITTIVITY && Math.abs(f.interfaceField_V_per_m) > HIGH_FIELD_V_PER_M,
     message: (f) =>
       `static permittivity ${f.staticPermittivity.toFixed(0)} used at an interface field of ${Math.abs(f.interfaceField_V_per_m).toExponential(1)} V/m; in SrTiO3-like supports it falls with field` +
       (f.fieldPermittivity !== null ? ` (Devonshire estimate ~${f.fieldPermittivity.toFixed(0)}, Phil. Mag. 40, 1040 (1949))` : '') +
-      ': band bending and charge near the interface are overstated',
+      ': band bending and charge near the interface are overstated (give --permittivity-nonlinearity to solve with it)',
   },
   {
     code: 'shallow-donors-in-insulator',

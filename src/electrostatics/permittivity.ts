@@ -38,6 +38,131 @@ export function devonshirePolarisation(field_V_per_m: number, alpha: number, bet
   return root;
 }
 
+/**
+ * Field-dependent dielectric of a paraelectric support, used in the Poisson solve (issue 11: SrTiO3-like supports):
+ *   D = eps0 eps_b E + P,   E = alpha P + beta P^3,   alpha = 1 / (eps0 (eps_r(0) - eps_b))
+ * (Landau–Ginzburg–Devonshire, Devonshire, Phil. Mag. 40, 1040 (1949); a quartic free energy alpha P^2/2 + beta P^4/4,
+ * i.e. beta = 4 alpha_11 in the phase-field convention G = alpha_1 P^2 + alpha_11 P^4). eps_b is the background
+ * (electronic) permittivity the soft mode sits on; eps_r(0) the static permittivity the rest of the tool uses, which
+ * the law returns at zero field; beta = 0 is the linear dielectric D = eps0 eps_r(0) E exactly.
+ * Fields in V/m, D in C/m^2, energies in J/m^3. Every function is odd in E (or even, for the energy) and finite.
+ */
+export interface DielectricLaw {
+  /** static (zero-field) relative permittivity, 1..1e5 */
+  staticPermittivity: number;
+  /** background relative permittivity eps_b, 1 <= eps_b < eps_r(0) when beta > 0 */
+  backgroundPermittivity: number;
+  /** quartic Landau coefficient beta, V m^5 C^-3 (0: linear) */
+  nonlinearity_V_m5_per_C3: number;
+}
+
+/** A linear dielectric (beta = 0). */
+export function linearDielectric(staticPermittivity: number): DielectricLaw {
+  return { staticPermittivity, backgroundPermittivity: staticPermittivity, nonlinearity_V_m5_per_C3: 0 };
+}
+
+/** Checked law: names the field and its range on bad input (beta 0..1e13 V m^5 C^-3, eps_b below eps_r(0)). */
+export function dielectricLaw(staticPermittivity: number, backgroundPermittivity: number, nonlinearity_V_m5_per_C3: number): DielectricLaw {
+  requireInRange('staticPermittivity', staticPermittivity, 1, 1e5, '');
+  requireInRange('permittivityNonlinearity', nonlinearity_V_m5_per_C3, 0, 1e13, 'V m^5 C^-3');
+  if (nonlinearity_V_m5_per_C3 === 0) return linearDielectric(staticPermittivity);
+  // the background must leave a soft-mode part: clamp it below the static value (an optical permittivity above the
+  // static one is refused elsewhere; equal ones leave no lattice part, i.e. a linear dielectric)
+  const background = requireInRange('backgroundPermittivity', backgroundPermittivity, 1, 1e5, '');
+  if (!(background < staticPermittivity)) return linearDielectric(staticPermittivity);
+  return { staticPermittivity, backgroundPermittivity: background, nonlinearity_V_m5_per_C3 };
+}
+
+export function isLinear(law: DielectricLaw): boolean {
+  return law.nonlinearity_V_m5_per_C3 === 0 || !(law.backgroundPermittivity < law.staticPermittivity);
+}
+
+function softModeAlpha(law: DielectricLaw): number {
+  return 1 / (EPS0_F_PER_M * (law.staticPermittivity - law.backgroundPermittivity));
+}
+
+/** D(E), C/m^2 (odd in E). */
+export function displacementOfField(law: DielectricLaw, field_V_per_m: number): number {
+  if (isLinear(law)) return EPS0_F_PER_M * law.staticPermittivity * field_V_per_m;
+  const p = devonshirePolarisation(field_V_per_m, softModeAlpha(law), law.nonlinearity_V_m5_per_C3);
+  return EPS0_F_PER_M * law.backgroundPermittivity * field_V_per_m + p;
+}
+
+/** Differential relative permittivity (1/eps0) dD/dE at field E: eps_b + 1 / (eps0 (alpha + 3 beta P^2)). */
+export function differentialPermittivity(law: DielectricLaw, field_V_per_m: number): number {
+  if (isLinear(law)) return law.staticPermittivity;
+  const alpha = softModeAlpha(law);
+  const beta = law.nonlinearity_V_m5_per_C3;
+  const p = devonshirePolarisation(field_V_per_m, alpha, beta);
+  return law.backgroundPermittivity + 1 / (EPS0_F_PER_M * (alpha + 3 * beta * p * p));
+}
+
+/**
+ * Field energy density W(E) = int_0^D E dD' (J/m^3), the left side of the planar first integral W(E_s) =
+ * int rho dpsi: W = eps0 eps_b E^2 / 2 + alpha P^2 / 2 + beta P^4 / 4 (integrating E dP = (alpha P + beta P^3) dP
+ * and the background part; exact, no quadrature).
+ */
+export function fieldEnergyDensity(law: DielectricLaw, field_V_per_m: number): number {
+  const e = field_V_per_m;
+  if (isLinear(law)) return 0.5 * EPS0_F_PER_M * law.staticPermittivity * e * e;
+  const alpha = softModeAlpha(law);
+  const beta = law.nonlinearity_V_m5_per_C3;
+  const p = devonshirePolarisation(e, alpha, beta);
+  // W = int E dD = int E (eps0 eps_b dE + dP) = eps0 eps_b E^2/2 + int_0^P (alpha P' + beta P'^3) dP'
+  return 0.5 * EPS0_F_PER_M * law.backgroundPermittivity * e * e + 0.5 * alpha * p * p + 0.25 * beta * p * p * p * p;
+}
+
+/**
+ * Inverse of fieldEnergyDensity: the field E >= 0 with W(E) = energy (J/m^3, >= 0). W is increasing and convex in
+ * E with eps0 eps_b E^2/2 <= W <= eps0 eps_r(0) E^2/2, which brackets the root; Newton (dW/dE = E dD/dE) safeguarded
+ * by bisection, to 1e-14 relative. Linear law: sqrt(2 W / (eps0 eps_r(0))).
+ */
+export function fieldOfEnergyDensity(law: DielectricLaw, energy_J_per_m3: number): number {
+  const w = Math.max(0, energy_J_per_m3);
+  if (w === 0) return 0;
+  const low0 = Math.sqrt((2 * w) / (EPS0_F_PER_M * law.staticPermittivity));
+  if (isLinear(law)) return low0;
+  let lo = low0;
+  let hi = Math.sqrt((2 * w) / (EPS0_F_PER_M * law.backgroundPermittivity));
+  let e = lo;
+  for (let k = 0; k < 200; k++) {
+    const f = fieldEnergyDensity(law, e) - w;
+    if (f > 0) hi = e;
+    else lo = e;
+    const slope = e * EPS0_F_PER_M * differentialPermittivity(law, e);
+    let next = slope > 0 ? e - f / slope : 0.5 * (lo + hi);
+    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    if (Math.abs(next - e) <= 1e-14 * next || hi - lo <= 1e-14 * hi) return next;
+    e = next;
+  }
+  return e;
+}
+
+/**
+ * Inverse of displacementOfField: E with D(E) = displacement (odd). D is increasing in E with slope between eps0 eps_b
+ * and eps0 eps_r(0), which brackets E; Newton safeguarded by bisection, to 1e-14 relative.
+ */
+export function fieldOfDisplacement(law: DielectricLaw, displacement_C_per_m2: number): number {
+  const d = Math.abs(displacement_C_per_m2);
+  const sign = displacement_C_per_m2 < 0 ? -1 : 1;
+  if (d === 0) return 0;
+  if (isLinear(law)) return (sign * d) / (EPS0_F_PER_M * law.staticPermittivity);
+  let lo = d / (EPS0_F_PER_M * law.staticPermittivity);
+  let hi = d / (EPS0_F_PER_M * law.backgroundPermittivity);
+  let e = lo;
+  for (let k = 0; k < 200; k++) {
+    const f = displacementOfField(law, e) - d;
+    if (f > 0) hi = e;
+    else lo = e;
+    const slope = EPS0_F_PER_M * differentialPermittivity(law, e);
+    let next = e - f / slope;
+    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    if (Math.abs(next - e) <= 1e-14 * next || hi - lo <= 1e-14 * hi) return sign * next;
+    e = next;
+  }
+  return sign * e;
+}
+
 export interface ImageForceCheck {
   /** distance of the image-force barrier maximum from the metal, x_m = sqrt(q / (16 pi eps_opt eps0 E)), m */
   maximumDistance_m: number;

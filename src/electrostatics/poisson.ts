@@ -9,6 +9,7 @@ import type { CrossSection } from './geometry.js';
 import { factorTridiagonal, solveFactoredTridiagonal } from './tridiagonal.js';
 import { bisectMesh, meshNodes, planarFirstIntegral, type PlanarFirstIntegral } from './mesh.js';
 import { GL5_NODES, GL5_WEIGHTS } from './gaussLegendre.js';
+import { differentialPermittivity, displacementOfField, fieldOfDisplacement, fieldOfEnergyDensity, isLinear, type DielectricLaw } from './permittivity.js';
 
 export interface PoissonProblem {
   model: ChargeModel;
@@ -17,6 +18,11 @@ export interface PoissonProblem {
   /** u at the interface, (E_C(0) - E_C,bulk)/kT */
   surfaceBending: number;
   relativePermittivity: number;
+  /**
+   * field-dependent dielectric (Landau–Devonshire, src/electrostatics/permittivity.ts) whose zero-field value is
+   * relativePermittivity; absent or linear: D = eps0 eps_r E, the solve is then exactly the linear one
+   */
+  dielectric?: DielectricLaw | undefined;
   temperature_K: number;
   geometry: CrossSection;
   /** finite support thickness (zero field there); undefined = semi-infinite */
@@ -136,13 +142,15 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
 
   const firstIntegral = planarFirstIntegral(model, xiBulk, uSurface, beta);
   const screened = problem.thickness_m === undefined;
+  const flux = problem.dielectric !== undefined && !isLinear(problem.dielectric) ? normalisedFlux(problem.dielectric, problem.temperature_K) : null;
   const system: DiscreteSystem = {
     model,
     xiBulk,
     beta,
     geometry,
     residue: firstIntegral.bulkResidue_m3,
-    farEnd: screened ? screenedTail(model, xiBulk, beta, firstIntegral.bulkResidue_m3, geometry) : null,
+    farEnd: screened ? screenedTail(model, xiBulk, beta, firstIntegral.bulkResidue_m3, geometry, flux) : null,
+    flux,
     contraction: 0,
     endFluxSlope: 0,
     tolerance,
@@ -163,9 +171,10 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
   // expected finest mesh (8n nodes), then the meshes and guesses of the four levels (n, 2n, 4n, 8n nodes), two
   // extrapolations and the returned charge profile
   const n0 = mesh.nodes.length;
-  const buffer = new Float64Array((WORK_ARRAYS * 8 + 49) * n0);
-  system.workspace = buffer.subarray(0, WORK_ARRAYS * 8 * n0);
-  const arena = makeArena(buffer.subarray(WORK_ARRAYS * 8 * n0));
+  const arrays = workArrays(system);
+  const buffer = new Float64Array((arrays * 8 + 49) * n0);
+  system.workspace = buffer.subarray(0, arrays * 8 * n0);
+  const arena = makeArena(buffer.subarray(arrays * 8 * n0));
   let x = arena(n0);
   for (let i = 0; i < n0; i++) x[i] = mesh.nodes[i]!;
   const guess = firstGuess(firstIntegral, geometry, x, arena(x.length));
@@ -233,7 +242,9 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
   for (let i = 0; i < x.length; i++) netCharge_m3[i] = fine.netCharge[i]!;
   // Gauss's law on the discrete system: the flux into the support at x = 0 balances the total charge
   const totalCharge_C = Q_ELEMENTARY_C * chargeSum;
-  const interfaceSlope_per_m = (-beta * chargeSum) / geometry.interfaceArea_m2;
+  // Gauss: the normalised flux phi(u'(0)) equals -beta Q / (q A); linear phi(s) = s
+  const interfaceFlux = (-beta * chargeSum) / geometry.interfaceArea_m2;
+  const interfaceSlope_per_m = flux === null ? interfaceFlux : flux.slopeOfFlux(interfaceFlux);
   const uEnd = fine.u[last]!;
   const farEndFraction = Math.abs(uSurface) > 0 ? Math.abs(uEnd / uSurface) : 0;
   const debye = firstIntegral.bulkScreening_m;
@@ -329,6 +340,34 @@ function interpolateToBisected(x: Float64Array, u: Float64Array, out: Float64Arr
   return out;
 }
 
+/**
+ * The displacement through a face in the solver's units: phi(s) = D((kT/q) s) q / (eps0 eps_r(0) kT) for a slope s =
+ * du/dx (1/m), so that the finite-volume equation (1/A) (A phi(u'))' = beta N keeps beta = q^2 / (eps_r(0) eps0 kT);
+ * phi(s) = s for a linear dielectric.
+ */
+export interface NormalisedFlux {
+  /** writes phi(s) and phi'(s) = eps_diff(E) / eps_r(0) into out[0], out[1] */
+  at(slope_per_m: number, out: Float64Array): void;
+  /** the slope s with phi(s) = flux (Gauss's law at the interface), 1/m */
+  slopeOfFlux(flux_per_m: number): number;
+  /** |s| of a planar layer whose first integral is w = 2 beta G (the linear s^2): W(E) = eps0 eps_r(0) (kT/q)^2 w / 2 */
+  slopeOfEnergy(w: number): number;
+}
+
+export function normalisedFlux(law: DielectricLaw, temperature_K: number): NormalisedFlux {
+  const thermalVoltage = (K_BOLTZMANN_J_PER_K * temperature_K) / Q_ELEMENTARY_C;
+  const scale = 1 / (EPS0_F_PER_M * law.staticPermittivity * thermalVoltage);
+  return {
+    at(slope, out) {
+      const field = thermalVoltage * slope;
+      out[0] = scale * displacementOfField(law, field);
+      out[1] = differentialPermittivity(law, field) / law.staticPermittivity;
+    },
+    slopeOfFlux: (flux) => fieldOfDisplacement(law, flux / scale) / thermalVoltage,
+    slopeOfEnergy: (w) => fieldOfEnergyDensity(law, 0.5 * EPS0_F_PER_M * law.staticPermittivity * thermalVoltage * thermalVoltage * w) / thermalVoltage,
+  };
+}
+
 /** The far-end condition of a semi-infinite support: outward flux per area g(u) and dg/du. */
 interface FarEnd {
   /** writes g(u) and g'(u) for the end node at depth x into out[0], out[1] */
@@ -345,7 +384,7 @@ const SERIES_MAX_U = 1e-3;
  * cross-section, which makes g exact for the linearised hemisphere tail u ~ exp(-r/L_D)/r. G by Gauss–Legendre
  * on pieces at most 0.5 kT wide (exact for the smooth charge models at the few-1e-12 level).
  */
-function screenedTail(model: ChargeModel, xiBulk: number, beta: number, residue: number, geometry: CrossSection): FarEnd {
+function screenedTail(model: ChargeModel, xiBulk: number, beta: number, residue: number, geometry: CrossSection, dielectric: NormalisedFlux | null): FarEnd {
   const charge = new Float64Array(2);
   // Taylor series of G about the bulk for the small |u| at the far end: G = s1 u^2/2 + s2 u^3/6 + s3 u^4/24 with
   // s_k = d^k N/du^k at u = 0 (s2, s3 by central differences of the analytic dN/du over +/-1e-2 kT); for
@@ -390,6 +429,15 @@ function screenedTail(model: ChargeModel, xiBulk: number, beta: number, residue:
         const k = Math.sqrt(beta * slope);
         out[0] = u * (k + spreading);
         out[1] = k + spreading;
+        return;
+      }
+      if (dielectric !== null) {
+        // field-dependent dielectric: the planar first integral W(E) = kT G gives the field s_E, and the flux is
+        // phi(s_E); d phi/du = beta N / s_E (dW = E dD), the linear formula with the actual field
+        const field = dielectric.slopeOfEnergy(g2);
+        dielectric.at(field, out);
+        out[0] = Math.sign(u) * out[0]! + spreading * u;
+        out[1] = (beta * Math.abs(n)) / field + spreading;
         return;
       }
       const root = Math.sqrt(g2);
@@ -446,6 +494,8 @@ interface DiscreteSystem {
   residue: number;
   /** screened-tail condition at the far end; null = zero field (finite thickness) */
   farEnd: FarEnd | null;
+  /** field-dependent dielectric: the normalised flux phi(u') through a face; null = linear (phi(s) = s) */
+  flux: NormalisedFlux | null;
   /** largest Newton contraction constant K (s_k / s_(k-1)^2) measured so far in this solve; 0 = none yet */
   contraction: number;
   /** A(L) g'(u_L) of the far-end condition at the last evaluation (0 for zero field) */
@@ -503,6 +553,12 @@ function chargeSettled(
 
 /** views per node in one mesh solve's workspace */
 const WORK_ARRAYS = 16;
+/** ... and four more with a field-dependent dielectric (the off-diagonals and face fluxes, current and trial) */
+const NONLINEAR_WORK_ARRAYS = 4;
+
+function workArrays(system: DiscreteSystem): number {
+  return WORK_ARRAYS + (system.flux !== null ? NONLINEAR_WORK_ARRAYS : 0);
+}
 
 /**
  * The work arrays of a mesh solve, shared by every mesh of one problem: allocated once by solveControlled for the
@@ -510,14 +566,15 @@ const WORK_ARRAYS = 16;
  * grown when a finer mesh is needed. WORK_ARRAYS views at least n long (a mesh uses the first n entries).
  */
 function acquireWorkspace(system: DiscreteSystem, n: number): Float64Array[] {
-  if (system.workspace.length < WORK_ARRAYS * n) {
-    system.workspace = new Float64Array(WORK_ARRAYS * 2 * n);
+  const arrays = workArrays(system);
+  if (system.workspace.length < arrays * n) {
+    system.workspace = new Float64Array(arrays * 2 * n);
     system.views = [];
   }
   if (system.views.length === 0) {
     // the views are made once per buffer (creating a typed-array view costs ~0.1 us: 16 per mesh added up)
-    const capacity = system.workspace.length / WORK_ARRAYS;
-    for (let k = 0; k < WORK_ARRAYS; k++) system.views.push(system.workspace.subarray(k * capacity, (k + 1) * capacity));
+    const capacity = Math.floor(system.workspace.length / arrays);
+    for (let k = 0; k < arrays; k++) system.views.push(system.workspace.subarray(k * capacity, (k + 1) * capacity));
   }
   return system.views;
 }
@@ -533,7 +590,7 @@ function newtonOnMesh(
   initial: Float64Array,
   maxIterations: number,
 ): MeshSolution {
-  const { model, xiBulk, beta, geometry, residue, farEnd } = system;
+  const { model, xiBulk, beta, geometry, residue, farEnd, flux } = system;
   const n = x.length;
   const endArea = geometry.faceArea(x[n - 1]!, x[n - 1]!);
   const endFlux = new Float64Array(2);
@@ -574,6 +631,16 @@ function newtonOnMesh(
   // beta V_i in place of V_i (the charge sums divide by beta once)
   for (let i = 0; i < n; i++) volume[i] = beta * volume[i]!;
   const betaVolume = volume;
+  // field-dependent dielectric: the face fluxes A phi(s) and their slopes k_i = (A/h) phi'(s_i) change with u, so the
+  // Jacobian's off-diagonals (upper[i] = k_i, lower[i] = k_(i-1)) are evaluated with the residual and swapped with the
+  // trial arrays; linear: both are the fixed face coefficients
+  let upper: Float64Array = faceCoefficient;
+  let trialUpper: Float64Array = flux !== null ? take() : faceCoefficient;
+  let lowerNow: Float64Array = lower;
+  let trialLower: Float64Array = flux !== null ? take() : lower;
+  if (flux !== null) upper = take();
+  const faceFlux = flux !== null ? take() : faceCoefficient;
+  const phi = new Float64Array(2);
 
   /** residual R_i = flux out - flux in - beta V_i N_i (and the Jacobian when asked); returns the scaled norm */
   const evaluate = (
@@ -582,7 +649,10 @@ function newtonOnMesh(
     outDiag: Float64Array,
     outCharge: Float64Array,
     outSlope: Float64Array,
+    outUpper: Float64Array = faceCoefficient,
+    outLower: Float64Array = lower,
   ): number => {
+    if (flux !== null) return evaluateNonlinear(values, out, outDiag, outCharge, outSlope, outUpper, outLower);
     let norm = 0;
     for (let i = 1; i < n; i++) {
       model.netCharge(xiBulk - values[i]!, charge);
@@ -608,12 +678,52 @@ function newtonOnMesh(
     return Math.sqrt(norm / (n - 1));
   };
 
+  /** evaluate() with the face flux A phi((u_(i+1) - u_i)/h) of a field-dependent dielectric (same scaled norm) */
+  function evaluateNonlinear(
+    values: Float64Array,
+    out: Float64Array,
+    outDiag: Float64Array,
+    outCharge: Float64Array,
+    outSlope: Float64Array,
+    outUpper: Float64Array,
+    outLower: Float64Array,
+  ): number {
+    for (let i = 0; i < last; i++) {
+      const h = x[i + 1]! - x[i]!;
+      flux!.at((values[i + 1]! - values[i]!) / h, phi);
+      faceFlux[i] = faceCoefficient[i]! * h * phi[0]!;
+      outUpper[i] = faceCoefficient[i]! * phi[1]!;
+    }
+    let norm = 0;
+    for (let i = 1; i < n; i++) {
+      model.netCharge(xiBulk - values[i]!, charge);
+      const right = i < last ? outUpper[i]! : 0;
+      const left = outUpper[i - 1]!;
+      outLower[i] = i > 1 ? left : 0;
+      let r = (i < last ? faceFlux[i]! : 0) - faceFlux[i - 1]! - betaVolume[i]! * (charge[0]! - residue);
+      let d = -right - left + betaVolume[i]! * charge[1]!;
+      if (i === last && farEnd !== null) {
+        farEnd.flux(values[i]!, x[i]!, endFlux);
+        r -= endArea * endFlux[0]!;
+        d -= endArea * endFlux[1]!;
+        system.endFluxSlope = endArea * endFlux[1]!;
+      }
+      out[i] = r;
+      outCharge[i] = charge[0]! - residue;
+      outSlope[i] = -charge[1]!;
+      outDiag[i] = d;
+      const scaled = r / d;
+      norm += scaled * scaled;
+    }
+    return Math.sqrt(norm / (n - 1));
+  }
+
   let iterations = 0;
   let u: Float64Array = initial;
   for (let i = 1; i < n; i++) {
     lower[i] = i > 1 ? faceCoefficient[i - 1]! : 0;
   }
-  evaluate(u, residual, diag, nodeCharge, nodeSlope);
+  evaluate(u, residual, diag, nodeCharge, nodeSlope, upper, lowerNow);
   let converged = false;
   let previousFullStep = 0;
   const stepCap = Math.max(10, 0.25 * Math.abs(uSurface));
@@ -621,10 +731,10 @@ function newtonOnMesh(
     iterations++;
     // factor the Jacobian once: the Newton step and every simplified step of the line search reuse it
     // (upper[i] = faceCoefficient[i]; the factorisation never reads upper at the last node)
-    const ok = factorTridiagonal(n - 1, lower, diag, faceCoefficient, inversePivot, work, 1);
+    const ok = factorTridiagonal(n - 1, lowerNow, diag, upper, inversePivot, work, 1);
     if (!ok) throw new ConvergenceError('singular Jacobian', iterations);
     // J s = -R: solve J y = R, then s = -y (one pass with the step's norms)
-    solveFactoredTridiagonal(n - 1, lower, inversePivot, work, residual, step, 1);
+    solveFactoredTridiagonal(n - 1, lowerNow, inversePivot, work, residual, step, 1);
     let maxStep = 0;
     let stepSquares = 0;
     for (let i = 1; i < n; i++) {
@@ -659,7 +769,7 @@ function newtonOnMesh(
     for (let halvings = 0; halvings < 50; halvings++) {
       for (let i = 1; i < n; i++) trial[i] = u[i]! + t * step[i]!;
       trial[0] = uSurface;
-      trialNorm = evaluate(trial, trialResidual, trialDiag, trialNodeCharge, trialNodeSlope);
+      trialNorm = evaluate(trial, trialResidual, trialDiag, trialNodeCharge, trialNodeSlope, trialUpper, trialLower);
       if (Number.isFinite(trialNorm)) {
         // a full step below TRUSTED_STEP moves every charge density by at most ~1% (e^0.01): inside Newton's
         // quadratic range, where the monotonicity test always passes; skip its extra solve
@@ -668,7 +778,7 @@ function newtonOnMesh(
           break;
         }
         for (let i = 1; i < n; i++) simplified[i] = -trialResidual[i]!;
-        solveFactoredTridiagonal(n - 1, lower, inversePivot, work, simplified, simplified, 1);
+        solveFactoredTridiagonal(n - 1, lowerNow, inversePivot, work, simplified, simplified, 1);
         let simplifiedNorm = 0;
         for (let i = 1; i < n; i++) simplifiedNorm += simplified[i]! * simplified[i]!;
         simplifiedNorm = Math.sqrt(simplifiedNorm / (n - 1));
@@ -704,6 +814,14 @@ function newtonOnMesh(
     swap = nodeSlope;
     nodeSlope = trialNodeSlope;
     trialNodeSlope = swap;
+    if (flux !== null) {
+      swap = upper;
+      upper = trialUpper;
+      trialUpper = swap;
+      swap = lowerNow;
+      lowerNow = trialLower;
+      trialLower = swap;
+    }
   }
   if (!converged) throw new ConvergenceError(`no convergence within ${maxIterations} Newton iterations`, iterations);
 

@@ -43,6 +43,8 @@ export interface ResolvedSupport {
   bandGap_eV: number;
   permittivity: number;
   opticalPermittivity: number;
+  /** quartic Landau coefficient of the support's lattice polarisation, V m^5 C^-3 (0: linear dielectric) */
+  permittivityNonlinearity_V_m5_per_C3: number;
   electronMass_me: number;
   holeMass_me: number;
   donorKind: DonorKind;
@@ -485,6 +487,7 @@ function assembleResolved(c: Resolution): ResolvedContact {
     bandGap_eV: c.num('bandGap')!,
     permittivity: c.num('permittivity')!,
     opticalPermittivity: c.num('opticalPermittivity')!,
+    permittivityNonlinearity_V_m5_per_C3: c.num('permittivityNonlinearity') ?? 0,
     electronMass_me: c.num('electronMass')!,
     holeMass_me: c.num('holeMass')!,
     donorKind: c.value('donorType') as DonorKind,

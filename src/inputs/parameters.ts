@@ -52,6 +52,8 @@ export interface ContactOptions {
   permittivity?: QuantityInput;
   /** high-frequency relative permittivity @default library value, else the static permittivity */
   opticalPermittivity?: QuantityInput;
+  /** quartic Landau coefficient beta of a field-dependent (paraelectric) support, E = alpha P + beta P^3, V m^5 C^-3 (0 = linear dielectric) @default library value of the support, else 0 (linear) */
+  permittivityNonlinearity?: QuantityInput;
   /** electron density-of-states mass, m_e @default library value, else 1 m_e */
   electronMass?: QuantityInput;
   /** hole density-of-states mass, m_e @default library value, else 1 m_e */
@@ -168,6 +170,8 @@ export interface RowContext {
 /** Inputs an uncertainty study may vary within their published ranges (ResolvedContact field names). */
 export type SampledField =
   | 'workFunction_eV' | 'electronAffinity_eV' | 'bandGap_eV' | 'permittivity' | 'donors_m3' | 'donorLevel1_eV'
+  // field-dependent permittivity of paraelectric supports (issue 11)
+  | 'permittivityNonlinearity_V_m5_per_C3'
   // interface states, localised states and the finite particle (issue 11); the last three have no table row and
   // are sampled in derived/uncertainty.ts from their defaults' published ranges / the metal's library range
   | 'pinningFactor' | 'neutralLevelAboveValence_eV' | 'localisedSites_m3' | 'localisedLevel_eV'
@@ -314,6 +318,14 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
     defaultText: 'library value, else the static permittivity', ...plain(PERMITTIVITY), label: 'optical permittivity',
     library: (r) => r.support?.opticalPermittivity, identifies: 'support',
     fallback: { value: (c) => c.value('permittivity') as number, note: 'not given: static value used' },
+  },
+  permittivityNonlinearity: {
+    flag: '--permittivity-nonlinearity <BETA>',
+    help: 'quartic Landau coefficient of a paraelectric support (E = alpha P + beta P^3, V m^5 C^-3): the permittivity falls with the field near the interface (SrTiO3); 0 = linear',
+    defaultText: 'library value of the support, else 0 (linear)', kind: 'quantity', quantity: 'dimensionless', limits: [0, 1e13], unit: 'V m^5 C^-3',
+    label: 'permittivity nonlinearity', library: (r) => r.support?.permittivityNonlinearity_V_m5_per_C3, identifies: 'support',
+    sampling: 'uniform', sampledAs: 'permittivityNonlinearity_V_m5_per_C3',
+    fallback: { value: 0, note: 'linear dielectric' },
   },
   electronMass: {
     flag: '--electron-mass <M>', help: 'electron density-of-states mass (m_e)', defaultText: 'library value, else 1 m_e', ...plain(MASS_ME),

@@ -95,6 +95,11 @@ export interface SupportRecord {
   interfaceLayerThickness_nm?: PropertyValue;
   /** relative permittivity of that interfacial layer */
   interfaceLayerPermittivity?: PropertyValue;
+  /**
+   * quartic Landau coefficient beta of a paraelectric support, E = alpha P + beta P^3, V m^5 C^-3: the static
+   * permittivity falls with field (SrTiO3); absent = a linear dielectric
+   */
+  permittivityNonlinearity_V_m5_per_C3?: PropertyValue;
   /** density of sites that can hold a localised (small-polaron, reduced-cation) electron, per cm^3 */
   localisedSiteDensity_cm3?: PropertyValue;
   /** depth of the localised (small-polaron) level below the conduction-band edge E_C, eV (positive) */

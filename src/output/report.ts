@@ -240,6 +240,9 @@ function spaceChargeRows(result: ContactResult): ResultRow[] {
   add('depletion width (depletion approximation)', formatQuantity(result.depletionWidthApprox_nm, 'nm'));
   add('Debye length', formatQuantity(result.debyeLength_nm, 'nm'));
   add('interface field', formatQuantity(result.interfaceField_V_per_m, 'V/m'));
+  if (result.permittivityNonlinearity_V_m5_per_C3 > 0) {
+    add('permittivity at the interface (field-dependent)', formatNumber(result.interfacePermittivity));
+  }
   add('donor density', formatQuantity(result.donorDensity_cm3, 'cm^-3'));
   add('acceptor density', formatQuantity(result.acceptorDensity_cm3, 'cm^-3'));
   return rows;

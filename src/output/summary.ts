@@ -100,6 +100,9 @@ export function keyResultRows(result: ContactResult): [string, string][] {
     ['depletion width (approx.)', formatQuantity(result.depletionWidthApprox_nm, 'nm')],
     ['Debye length', formatQuantity(result.debyeLength_nm, 'nm')],
     ['interface field', formatQuantity(result.interfaceField_V_per_m, 'V/m')],
+    ...(result.permittivityNonlinearity_V_m5_per_C3 > 0
+      ? ([['permittivity at the interface', `${formatNumber(result.interfacePermittivity)} (field-dependent; Landau-Devonshire beta ${result.permittivityNonlinearity_V_m5_per_C3.toExponential(2)} V m^5 C^-3)`]] as [string, string][])
+      : []),
     ['image-force lowering', formatQuantity(result.imageForceLowering_eV, 'eV')],
     ['electrons per particle', `${formatSigned(result.electronsPerParticle)} (d = ${formatNumber(result.particle.diameter_nm)} nm)`],
     ...nanoscaleRows(result),

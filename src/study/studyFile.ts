@@ -119,6 +119,8 @@ export const OUTPUT_PATHS = [
   'widthDefinition',
   'debyeLength_nm',
   'interfaceField_V_per_m',
+  'interfacePermittivity',
+  'permittivityNonlinearity_V_m5_per_C3',
   'imageForceLowering_eV',
   'imageForceMaximum_nm',
   'imageForceContinuumValid',
