@@ -587,9 +587,13 @@ describe('third survey: coverage rules', () => {
     expect(s('SrTiO3').electronAffinity_eV.value).toBeCloseTo(4.05, 10);
     expect(s('SrTiO3').electronAffinity_eV.max).toBeCloseTo(4.05 + 0.1, 10);
     // Cai, Zhang & Wei, J. Semicond. 40, 092101 (2019) (abstract): rutile TiO2 gap "around 3.0 eV"; the rutile affinity is
-    // Kashiwaya's anatase ionisation potential 7.96 eV minus Pfeifer's 0.7 eV offset minus this gap
+    // the rutile ionisation potential of Kashiwaya et al., Surfaces 1, 73 (2018) (abstract: anatase 7.96 +/- 0.15 eV, rutile
+    // "about 0.56 eV lower") minus this gap; the range reaches down to the value with Pfeifer et al.'s 0.7 +/- 0.1 eV
+    // valence-band offset (J. Phys. Chem. Lett. 4, 4182 (2013), abstract) at its upper bound
     expect(s('TiO2-rutile').bandGap_eV.value).toBe(3);
-    expect(s('TiO2-rutile').electronAffinity_eV.value).toBeCloseTo(7.96 - 0.7 - 3.0, 10);
+    expect(s('TiO2-rutile').electronAffinity_eV.value).toBeCloseTo(7.96 - 0.56 - 3.0, 10);
+    expect(s('TiO2-rutile').electronAffinity_eV.min).toBeCloseTo(7.96 - 0.15 - (0.7 + 0.1) - 3.0, 10);
+    expect(s('TiO2-rutile').electronAffinity_eV.max).toBeCloseTo(7.96 + 0.15 - 0.56 - 3.0, 10);
     // Brochen et al., J. Phys. Chem. C (abstract quoted in a laboratory news item): Cu2O copper-vacancy level 278 +/- 21 meV
     const cu = s('Cu2O').acceptor!.level_eV;
     expect([cu.min, cu.value, cu.max]).toEqual([0.257, 0.278, 0.299]);
