@@ -13,7 +13,7 @@ const GROUPS: readonly { title: string; open: boolean; options: readonly string[
   {
     title: 'Support',
     open: true,
-    options: ['support', 'supportFormula', 'bandGap', 'electronAffinity', 'supportWorkFunction', 'permittivity', 'opticalPermittivity', 'electronMass', 'holeMass'],
+    options: ['support', 'supportFormula', 'bandGap', 'electronAffinity', 'supportWorkFunction', 'permittivity', 'opticalPermittivity', 'permittivityNonlinearity', 'electronMass', 'holeMass'],
   },
   { title: 'Conditions', open: true, options: ['temperature'] },
   { title: 'Donors and acceptors', open: true, options: ['donors', 'donorType', 'donorLevel', 'donorLevel2', 'acceptors', 'acceptorLevel', 'localisedSites', 'localisedLevel'] },

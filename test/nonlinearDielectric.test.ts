@@ -162,3 +162,75 @@ describe('Poisson solve with the field-dependent dielectric', () => {
     expect(Math.abs(perArea / planar.totalCharge_C - 1)).toBeLessThan(1e-3);
   });
 });
+
+describe('random planar cases with a field-dependent dielectric (exact first integral, Sze & Ng ch. 4, with D(E))', () => {
+  it('600 seeded cases: finite, sign of the bending, and the charge within the solver bound of the exact value', async () => {
+    const { randomCases, mulberry32 } = await import('./reference/randomCases.js');
+    const { gaussPlanarCharge } = await import('./reference/planarCharge.js');
+    const { CHARGE_TOLERANCE } = await import('../src/electrostatics/poisson.js');
+    const random = mulberry32(20261204);
+    const violations: string[] = [];
+    for (const c of randomCases(77, 600)) {
+      // a paraelectric on top of each random case: background 1.5..eps_r/2, beta log-uniform 1e8..1e11 V m^5 C^-3
+      const background = 1.5 + random() * Math.max(0, c.relativePermittivity / 2 - 1.5);
+      const beta = 1e8 * Math.pow(1e3, random());
+      const caseLaw = dielectricLaw(c.relativePermittivity, background, beta);
+      const solution = solvePoisson({
+        model: makeChargeModel(c.support),
+        bulkReducedFermiLevel: c.bulkReducedFermiLevel,
+        surfaceBending: c.bandBending_eV / c.kT_eV,
+        relativePermittivity: c.relativePermittivity,
+        dielectric: caseLaw,
+        temperature_K: c.support.temperature_K,
+        geometry: PLANAR,
+      });
+      expect(Number.isFinite(solution.totalCharge_C) && solution.u.every(Number.isFinite), `case ${c.index}`).toBe(true);
+      // exact: W = Q_lin^2 / (2 eps0 eps_r) from the independent Gauss–Legendre first integral, then P by bisection
+      const qLinear = gaussPlanarCharge(c.support, c.relativePermittivity, c.bandBending_eV);
+      const w = (qLinear * qLinear) / (2 * CODATA2018.eps0 * c.relativePermittivity);
+      const a = 1 / (CODATA2018.eps0 * (c.relativePermittivity - caseLaw.backgroundPermittivity));
+      const b = caseLaw.nonlinearity_V_m5_per_C3;
+      const eOf = (p: number) => a * p + b * p ** 3;
+      const wOf = (p: number) => 0.5 * CODATA2018.eps0 * caseLaw.backgroundPermittivity * eOf(p) ** 2 + 0.5 * a * p * p + 0.25 * b * p ** 4;
+      let lo = 0;
+      let hi = 1e-12;
+      while (wOf(hi) < w) hi *= 2;
+      for (let k = 0; k < 200; k++) {
+        const mid = 0.5 * (lo + hi);
+        if (wOf(mid) < w) lo = mid;
+        else hi = mid;
+      }
+      const p = 0.5 * (lo + hi);
+      const exact = Math.sign(qLinear) * (CODATA2018.eps0 * caseLaw.backgroundPermittivity * eOf(p) + p);
+      const error = exact === 0 ? Math.abs(solution.totalCharge_C) : Math.abs(solution.totalCharge_C / exact - 1);
+      const allowed = solution.meetsTolerance ? CHARGE_TOLERANCE : Math.max(CHARGE_TOLERANCE, solution.chargeErrorBound);
+      if (!(error <= allowed)) violations.push(`case ${c.index}: error ${error.toExponential(2)}, bound ${solution.chargeErrorBound.toExponential(2)}`);
+      if (c.bandBending_eV !== 0 && solution.totalCharge_C !== 0) expect(Math.sign(solution.totalCharge_C), `case ${c.index}`).toBe(Math.sign(c.bandBending_eV));
+    }
+    expect(violations).toEqual([]);
+  });
+});
+
+describe('random hemisphere cases with a field-dependent dielectric', () => {
+  it('150 seeded cases (r 0.5-20 nm): finite, and never more charge than the linear dielectric at the same bending (a lower permittivity screens less; comparison principle, common practice, no source)', async () => {
+    const { randomCases, mulberry32 } = await import('./reference/randomCases.js');
+    const random = mulberry32(4242);
+    for (const c of randomCases(91, 150)) {
+      const radius = 0.5e-9 * Math.pow(40, random());
+      const caseLaw = dielectricLaw(c.relativePermittivity, Math.min(5, c.relativePermittivity / 2), 1e9 * Math.pow(100, random()));
+      const base = {
+        model: makeChargeModel(c.support),
+        bulkReducedFermiLevel: c.bulkReducedFermiLevel,
+        surfaceBending: c.bandBending_eV / c.kT_eV,
+        relativePermittivity: c.relativePermittivity,
+        temperature_K: c.support.temperature_K,
+        geometry: hemisphere(radius),
+      };
+      const nonlinear = solvePoisson({ ...base, dielectric: caseLaw });
+      const linear = solvePoisson(base);
+      expect(Number.isFinite(nonlinear.totalCharge_C) && nonlinear.u.every(Number.isFinite), `case ${c.index}`).toBe(true);
+      const slack = 2 * Math.max(1e-5, nonlinear.chargeErrorBound, linear.chargeErrorBound) * Math.abs(linear.totalCharge_C);
+      expect(Math.abs(nonlinear.totalCharge_C), `case ${c.index}`).toBeLessThanOrEqual(Math.abs(linear.totalCharge_C) + slack);
+    }
+  });
+});

@@ -14,6 +14,9 @@
 //      same process, so the charge model's statistics call sites (makeChargeModel: stats.density/derivative) have
 //      seen both statistics objects and are polymorphic: in a Boltzmann-only process the charge model is cheaper.
 //    The charge model and bulk equilibrium are prepared once outside the timing: only solvePoisson is timed.
+//    - nonlinearPlanarSolve: the planar FD case at 1e20 cm^-3 with SrTiO3's field-dependent dielectric (static 316.3,
+//      background 5.23, beta 6.8e9 V m^5 C^-3), timed in the same rounds as the same problem with a linear dielectric
+//      (eps 316.3); *_ratio = nonlinear / linear (the cost of the Landau–Devonshire flux per Newton step).
 //  REFERENCE: the same four typical solves with the frozen pre-issue-10 solver (bench/legacy/ at the top level, compiled
 //    by bench/tsconfig.json into dist/bench-legacy/ and loaded at run time; commit 713f1f8:
 //    one mesh + its bisection, refine only above a 1e-3 Richardson correction), timed in the same interleaved
@@ -69,6 +72,7 @@ import { PLANAR, hemisphere, type CrossSection } from '../electrostatics/geometr
 import { bisectMesh, buildMesh, planarFirstIntegral } from '../electrostatics/mesh.js';
 import { DEFAULT_MAX_DOMAIN_M, solvePoisson, type PoissonProblem, type PoissonSolution } from '../electrostatics/poisson.js';
 import { solveTridiagonal } from '../electrostatics/tridiagonal.js';
+import { dielectricLaw } from '../electrostatics/permittivity.js';
 import { loadLibrary } from '../materials/load.js';
 import type { MaterialsLibrary } from '../materials/types.js';
 import { runScreen } from '../screen.js';
@@ -253,6 +257,10 @@ interface ScalingPoint {
 interface BenchSummary {
   explorer: ExplorerBench;
   planarSolve_us_median: number;
+  /** planar FD solve at 1e20 cm^-3 with SrTiO3's field-dependent dielectric, the same with a linear one, and their ratio */
+  nonlinearPlanarSolve_us_median: number;
+  nonlinearPlanarSolve_linear_us_median: number;
+  nonlinearPlanarSolve_ratio: number;
   hemisphereSolve_us_median: number;
   planarSolve_us_median_boltzmann: number;
   hemisphereSolve_us_median_boltzmann: number;
@@ -388,6 +396,8 @@ const ROUNDS = 8;
  * solveContact hemisphere and planar: 8 rounds x 50 calls each after 100 warm-up calls), then the Boltzmann solves
  * (see the file comment on polymorphic call sites).
  */
+const NONLINEAR_LABELS = { linear: 'planar FD 1e20, eps 316 linear', nonlinear: 'planar FD 1e20, eps 316 Landau-Devonshire' } as const;
+
 function benchTypical(): { solves: Map<string, InterleavedStats>; contacts: Map<string, InterleavedStats> } {
   const solveCases: [string, Statistics, CrossSection][] = [
     ['planar FD', 'fermi-dirac', PLANAR],
@@ -409,9 +419,17 @@ function benchTypical(): { solves: Map<string, InterleavedStats>; contacts: Map<
 
   const fd = prepared('fermi-dirac');
   const reference = (c: { label: string; problem: PoissonProblem }): TimedCase => ({ label: `${c.label} [reference]`, fn: () => solvePoissonReference(c.problem) });
+  // field-dependent dielectric: the typical support at 1e20 cm^-3 with SrTiO3's permittivities (static 316.3,
+  // background 5.23) and its library beta 6.8e9 V m^5 C^-3, against the same problem with a linear dielectric
+  const paraelectric = { ...preparePoisson(1e20, TYPICAL.temperature_K, TYPICAL.bandBending_eV, 'fermi-dirac', PLANAR).problem, relativePermittivity: 316.3 };
+  const nonlinearCases = [
+    { label: NONLINEAR_LABELS.linear, problem: paraelectric },
+    { label: NONLINEAR_LABELS.nonlinear, problem: { ...paraelectric, dielectric: dielectricLaw(316.3, 5.23, 6.8e9) } },
+  ];
   const fdStats = timeInterleaved(
     [
       ...fd.map((c) => ({ label: c.label, fn: () => solvePoisson(c.problem) })),
+      ...nonlinearCases.map((c) => ({ label: c.label, fn: () => solvePoisson(c.problem) })),
       ...fd.map(reference),
       ...contactCases.map((c) => ({ label: c.label, fn: () => solveContact(c.options) })),
     ],
@@ -427,6 +445,7 @@ function benchTypical(): { solves: Map<string, InterleavedStats>; contacts: Map<
     100,
   );
   const solves = new Map<string, InterleavedStats>();
+  for (const c of nonlinearCases) solves.set(c.label, fdStats.get(c.label)!);
   const rows: (string | number)[][] = [];
   for (const c of [...fd, ...boltzmann]) {
     for (const [label, solution] of [
@@ -870,6 +889,9 @@ function summarise(r: SectionResults): BenchSummary {
   );
   return {
     planarSolve_us_median: round(typical.get('planar FD')!.median),
+    nonlinearPlanarSolve_us_median: round(typical.get(NONLINEAR_LABELS.nonlinear)!.median),
+    nonlinearPlanarSolve_linear_us_median: round(typical.get(NONLINEAR_LABELS.linear)!.median),
+    nonlinearPlanarSolve_ratio: round(typical.get(NONLINEAR_LABELS.nonlinear)!.median / typical.get(NONLINEAR_LABELS.linear)!.median),
     hemisphereSolve_us_median: round(typical.get('hemisphere r=1nm FD')!.median),
     planarSolve_us_median_boltzmann: round(typical.get('planar Boltzmann')!.median),
     hemisphereSolve_us_median_boltzmann: round(typical.get('hemisphere r=1nm Boltzmann')!.median),
