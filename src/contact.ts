@@ -392,6 +392,7 @@ function warningFacts(p: ContactPhysics): WarningFacts {
     atoms: p.atoms?.atoms ?? null,
     surfaceAtoms: p.atoms?.surfaceAtoms ?? null,
     interfaceField_V_per_m: p.interfaceField_V_per_m,
+    interfaceLayer: p.interfaceStates === null ? null : { spaceCharge_C_per_m2: p.spaceCharge_C_per_m2, layerThickness_m: p.interfaceStates.layerThickness_m, layerPermittivity: p.interfaceStates.layerPermittivity },
     staticPermittivity: r.support.permittivity,
     permittivityFieldDependent: !isLinear(supportDielectric(r.support)),
     fieldPermittivity: p.interfaceField_V_per_m !== 0 && r.support.permittivity > 50 ? devonshirePermittivity(clamp(p.interfaceField_V_per_m, 1e11), Math.min(r.support.permittivity, 1e5), SRTIO3_LIKE_BETA) : null,

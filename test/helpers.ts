@@ -155,6 +155,8 @@ export function warningFacts(overrides: Partial<WarningFacts> = {}): WarningFact
     atoms: 300,
     surfaceAtoms: 150,
     interfaceField_V_per_m: 1e7,
+    interfaceLayer: null,
+    permittivityFieldDependent: false,
     staticPermittivity: 10,
     fieldPermittivity: null,
     imageForceMaximum_m: 3e-9,

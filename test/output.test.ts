@@ -104,6 +104,8 @@ function depletionFixture(over: Partial<FixtureParams> = {}): ContactResult {
     widthDefinition: 'charge-equivalent',
     debyeLength_nm: Math.sqrt((eps * kT) / (Q * nd)) * 1e9,
     interfaceField_V_per_m: field[0]!,
+    interfacePermittivity: 10,
+    permittivityNonlinearity_V_m5_per_C3: 0,
     imageForceLowering_eV: 0.031,
     imageForceMaximum_nm: 2.5,
     imageForceContinuumValid: true,

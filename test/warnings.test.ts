@@ -49,6 +49,10 @@ describe('warning rules', () => {
     ['unphysical-charge', { electronsPerParticle: 179, atoms: 139, surfaceAtoms: 90 }],
     // image-force maximum x_m = sqrt(q / (16 pi eps_opt eps0 E)) (Sze & Ng, 3rd ed., ch. 3) at 0.3 nm: continuum doubtful
     ['image-force-continuum', { imageForceValid: false, imageForceMaximum_m: 0.3e-9 }],
+    // Cowley & Sze (J. Appl. Phys. 36, 3212 (1965)) neglect the space-charge term of the layer drop; 0.02 C/m^2 across
+    // 0.5 nm of eps_i 1 is 1.13 V (Q delta / eps0): the layer, not the states, sets the barrier (threshold 0.3 V:
+    // common practice, no source)
+    ['space-charge-sets-barrier', { interfaceLayer: { spaceCharge_C_per_m2: 0.02, layerThickness_m: 0.5e-9, layerPermittivity: 1 } }],
     // SrTiO3 permittivity falls with field (Devonshire, Phil. Mag. 40, 1040 (1949), from memory, verify)
     ['field-dependent-permittivity', { staticPermittivity: 300, interfaceField_V_per_m: 1e9, fieldPermittivity: 40 }],
     // F centres in MgO absorb near 5 eV (Kappers, Kroes & Hensley, Phys. Rev. B 1, 4151 (1970), from memory, verify):
@@ -97,5 +101,9 @@ describe('warning rules', () => {
   it('the permittivity warning needs both a high permittivity and a high field', () => {
     expect(codes({ staticPermittivity: 300, interfaceField_V_per_m: 1e7 })).toEqual([]);
     expect(codes({ staticPermittivity: 30, interfaceField_V_per_m: 1e9 })).toEqual([]);
+    // modelled field-dependent permittivity: no warning asking for it
+    expect(codes({ staticPermittivity: 300, interfaceField_V_per_m: 1e9, permittivityFieldDependent: true })).toEqual([]);
+    // 2e-3 C/m^2 across the same layer drops 0.11 V: below the threshold
+    expect(codes({ interfaceLayer: { spaceCharge_C_per_m2: 2e-3, layerThickness_m: 0.5e-9, layerPermittivity: 1 } })).toEqual([]);
   });
 });

@@ -1,6 +1,7 @@
 // Warnings of one contact as a rule table: code, condition, message. Each rule reads only the SI facts below,
 // so it can be tested on its own (test/warnings.test.ts). Adding a warning = one row here.
 import type { Warning } from '../types.js';
+import { EPS0_F_PER_M } from '../constants.js';
 
 /** What the warning rules may look at, all SI (energies in eV). */
 export interface WarningFacts {
@@ -52,6 +53,8 @@ export interface WarningFacts {
   atoms: number | null;
   surfaceAtoms: number | null;
   interfaceField_V_per_m: number;
+  /** interface-states model: space charge per contact area (C/m^2) and the interfacial layer; null for other models */
+  interfaceLayer: { spaceCharge_C_per_m2: number; layerThickness_m: number; layerPermittivity: number } | null;
   /** the solve used a field-dependent (Landau–Devonshire) dielectric */
   permittivityFieldDependent: boolean;
   /** static relative permittivity used in the solve */
@@ -99,6 +102,19 @@ export const HIGH_PERMITTIVITY = 50;
 export const WIDE_GAP_EV = 5;
 export const SHALLOW_DONOR_EV = 0.1;
 export const HIGH_FIELD_V_PER_M = 1e8;
+/**
+ * Potential the space charge alone would drop across the interfacial layer, Q_sc delta / (eps_i eps0), above which
+ * the interface-state barrier depends mainly on the assumed layer: Cowley & Sze's linear pinning formula neglects
+ * that term (small space charge), and delta and eps_i are the least known inputs (common practice, no source).
+ */
+export const LAYER_SPACE_CHARGE_DROP_V = 0.3;
+
+/** Q_sc delta / (eps_i eps0), V; null outside the interface-states model. */
+export function spaceChargeLayerDrop_V(f: WarningFacts): number | null {
+  const l = f.interfaceLayer;
+  if (l === null || !(l.layerPermittivity > 0)) return null;
+  return (Math.abs(l.spaceCharge_C_per_m2) * l.layerThickness_m) / (l.layerPermittivity * EPS0_F_PER_M);
+}
 
 const perSurfaceAtom = (f: WarningFacts): number | null => (f.surfaceAtoms ? Math.abs(f.electronsPerParticle) / f.surfaceAtoms : null);
 const nm = (x_m: number, digits: number): string => (x_m * 1e9).toFixed(digits);
@@ -215,6 +231,12 @@ export const WARNING_RULES: readonly WarningRule[] = [
     applies: (f) => (perSurfaceAtom(f) ?? 0) > MAX_ELECTRONS_PER_SURFACE_ATOM,
     message: (f) =>
       `${perSurfaceAtom(f)!.toFixed(2)} electrons per surface atom (${(Math.abs(f.electronsPerParticle) / f.atoms!).toFixed(2)} per metal atom): more than one per surface atom is unphysical; the continuum model is outside its range`,
+  },
+  {
+    code: 'space-charge-sets-barrier',
+    applies: (f) => (spaceChargeLayerDrop_V(f) ?? 0) > LAYER_SPACE_CHARGE_DROP_V,
+    message: (f) =>
+      `the space charge (${Math.abs(f.interfaceLayer?.spaceCharge_C_per_m2 ?? 0).toExponential(1)} C/m^2) alone would drop ${(spaceChargeLayerDrop_V(f) ?? 0).toFixed(2)} V across the ${nm(f.interfaceLayer?.layerThickness_m ?? 0, 1)} nm interfacial layer (eps_i ${f.interfaceLayer?.layerPermittivity ?? 1}): the barrier then depends mainly on the assumed layer, not on the interface states (Cowley & Sze's pinning assumes a small space charge); vary --interface-layer-thickness and --interface-layer-permittivity or use --uncertainty`,
   },
   {
     code: 'image-force-continuum',
