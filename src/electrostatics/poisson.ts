@@ -1,6 +1,7 @@
 // Nonlinear Poisson equation for the band bending in the support, on a 1D cross-section A(x):
 //   (1/A) d/dx (A du/dx) = beta * N(xi_bulk - u),   beta = q^2 / (eps eps0 k T),
-// with u = (E_C(x) - E_C,bulk)/kT (positive = bands bend up), N = (p - n + N_D^+ - N_A^-) per m^3.
+// with u = (E_C(x) - E_C,bulk)/kT (positive = bands bend up), N = (p - n + N_D^+ - N_A^-) per m^3. A field-dependent
+// dielectric replaces A du/dx by A phi(du/dx), phi the displacement in the same units (NormalisedFlux below).
 // Vertex-centred finite volumes on a graded mesh; Newton with an O(N) tridiagonal Jacobian and backtracking.
 import { EPS0_F_PER_M, K_BOLTZMANN_J_PER_K, Q_ELEMENTARY_C } from '../constants.js';
 import { ConvergenceError } from '../errors.js';
@@ -431,7 +432,7 @@ function screenedTail(model: ChargeModel, xiBulk: number, beta: number, residue:
         out[1] = k + spreading;
         return;
       }
-      if (dielectric !== null) {
+      if (dielectric !== null && dielectric.slopeOfEnergy(g2) > 0) {
         // field-dependent dielectric: the planar first integral W(E) = kT G gives the field s_E, and the flux is
         // phi(s_E); d phi/du = beta N / s_E (dW = E dD), the linear formula with the actual field
         const field = dielectric.slopeOfEnergy(g2);
