@@ -115,3 +115,29 @@ describe('hole barriers of p-type supports', () => {
     expect(() => predictedBarrier_eV(r('electron'), 'holeBarrier_eV')).toThrow(RangeError);
   });
 });
+
+describe('technique: what each measurement sees', () => {
+  // I-V (thermionic) and BEEM barriers are the top of the barrier, lowered by the image force; C-V, internal
+  // photoemission extrapolated to zero field and photoemission see the barrier without it (Sze & Ng, Physics of
+  // Semiconductor Devices, 3rd ed., sec. 3.2.4; Rhoderick & Williams, Metal-Semiconductor Contacts, 2nd ed., ch. 3)
+  const r = (bandBending_eV: number, carrier: 'electron' | 'hole' = 'electron') =>
+    ({ electronBarrier_eV: 1.0, barrierHeight_eV: carrier === 'hole' ? 0.8 : 1.0, barrierCarrier: carrier, bandBending_eV, imageForceLowering_eV: 0.07 }) as unknown as ContactResult;
+  it('I-V and BEEM subtract the image-force lowering where the carriers are depleted; the others do not', () => {
+    expect(predictedBarrier_eV(r(0.5), 'electronBarrier_eV', 'current-voltage')).toBeCloseTo(0.93, 12);
+    expect(predictedBarrier_eV(r(0.5), 'electronBarrier_eV', 'beem')).toBeCloseTo(0.93, 12);
+    for (const t of ['capacitance-voltage', 'internal-photoemission', 'photoemission', 'other'] as const) expect(predictedBarrier_eV(r(0.5), 'electronBarrier_eV', t)).toBe(1.0);
+    // accumulation: no barrier maximum to lower
+    expect(predictedBarrier_eV(r(-0.2), 'electronBarrier_eV', 'current-voltage')).toBe(1.0);
+    // holes: depleted when the bands bend down
+    expect(predictedBarrier_eV(r(-0.4, 'hole'), 'holeBarrier_eV', 'current-voltage')).toBeCloseTo(0.73, 12);
+    expect(predictedBarrier_eV(r(0.4, 'hole'), 'holeBarrier_eV', 'current-voltage')).toBe(0.8);
+  });
+  it('every barrier row names its technique consistently with its method text', () => {
+    for (const row of loadGallery().barriers) {
+      const m = row.method.toLowerCase();
+      if (row.technique === 'current-voltage') expect(m.startsWith('current-voltage'), row.id).toBe(true);
+      if (row.technique === 'capacitance-voltage') expect(m.startsWith('capacitance-voltage'), row.id).toBe(true);
+      if (row.technique === 'beem') expect(m, row.id).toContain('ballistic electron');
+    }
+  });
+});

@@ -44,6 +44,12 @@ export const BarrierRowSchema = z
     ...common,
     /** electron barrier E_C(0) - E_F, or, for a p-type support, the hole barrier E_F - E_V(0) the paper reports */
     quantity: z.enum(['electronBarrier_eV', 'holeBarrier_eV']),
+    /**
+     * the measuring technique, read from `method`: current-voltage (thermionic fits) and BEEM see the top of the
+     * barrier, lowered by the image force; capacitance-voltage, internal photoemission (thresholds extrapolated to zero
+     * field) and photoemission (band bending) see the barrier without it; 'other' for mixed or unstated techniques
+     */
+    technique: z.enum(['current-voltage', 'capacitance-voltage', 'internal-photoemission', 'photoemission', 'beem', 'other']),
     value: num,
     uncertainty: num.nonnegative().nullable(),
     range: z.tuple([num, num]).nullable(),
@@ -401,11 +407,22 @@ function asResult(x: unknown): ContactResult {
 
 type AnyRow = BarrierRow | ChargeRow | BandBendingRow;
 
-/** The barrier a row measured: the electron barrier, or the hole barrier of a contact whose majority carriers are holes. */
-export function predictedBarrier_eV(result: ContactResult, quantity: BarrierRow['quantity']): number {
-  if (quantity === 'electronBarrier_eV') return result.electronBarrier_eV;
+/**
+ * The barrier a row measured: the electron barrier, or the hole barrier of a contact whose majority carriers are holes.
+ * Current-voltage and BEEM rows see the barrier's top, lowered by the image force (Sze & Ng, 3rd ed., sec. 3.2.4;
+ * Rhoderick & Williams, Metal-Semiconductor Contacts, 2nd ed., ch. 3: I-V barriers lie below C-V ones by about this
+ * much): the contact's imageForceLowering_eV is subtracted there, where the measured carriers are depleted (a barrier
+ * with a maximum); the other techniques compare the barrier without it.
+ */
+export function predictedBarrier_eV(result: ContactResult, quantity: BarrierRow['quantity'], technique: BarrierRow['technique'] = 'other'): number {
+  const seesTop = technique === 'current-voltage' || technique === 'beem';
+  if (quantity === 'electronBarrier_eV') {
+    const depleted = result.bandBending_eV > 0;
+    return result.electronBarrier_eV - (seesTop && depleted ? result.imageForceLowering_eV : 0);
+  }
   if (result.barrierCarrier !== 'hole') throw new RangeError('hole barrier measured, but the model gives an electron barrier for this support (not p-type)');
-  return result.barrierHeight_eV;
+  const depleted = result.bandBending_eV < 0;
+  return result.barrierHeight_eV - (seesTop && depleted ? result.imageForceLowering_eV : 0);
 }
 
 /**
@@ -454,7 +471,7 @@ export function runValidation(options: ValidationOptions = {}): ValidationResult
 
   for (const r of gallery.barriers.filter(keep)) {
     const row = { ...rowHead('barrier', r), measured: r.value, ...(r.quantity === 'holeBarrier_eV' ? { quantity: r.quantity } : {}) };
-    rows.push(compareRow(row, r, stateFor(r, usesState, lib), (st) => predictedBarrier_eV(asResult(solve(barrierOptions(r, model, st))), r.quantity)));
+    rows.push(compareRow(row, r, stateFor(r, usesState, lib), (st) => predictedBarrier_eV(asResult(solve(barrierOptions(r, model, st))), r.quantity, r.technique)));
   }
   for (const r of gallery.charges.filter(keep)) {
     const row = { ...rowHead('charge', r), measured: r.value, measuredSign: r.sign, measuredRange: r.magnitudeRange };
