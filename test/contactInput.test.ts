@@ -38,7 +38,7 @@ describe('contact inputs: refused combinations name the conflict', () => {
     ['a shift source without a shift', tungstenOnSilicon({ workFunctionShiftSource: 'XPS' }), /^--work-function-shift-source: only used with --work-function-shift/],
     ['a formula next to a given affinity', tungstenOnSilicon({ supportFormula: 'ZnO' }), /^--support-formula: only used without --electron-affinity and --support/],
     ['a fractional sample count', tungstenOnSilicon({ uncertainty: 2.5 }), /^--uncertainty: expected a whole number/],
-    ['an unknown choice', tungstenOnSilicon({ geometry: 'cube' as ContactOptions['geometry'] }), /^--geometry: unknown geometry "cube" \(allowed: planar, hemisphere, array\)/],
+    ['an unknown choice', tungstenOnSilicon({ geometry: 'cube' as ContactOptions['geometry'] }), /^--geometry: unknown geometry "cube" \(allowed: planar, hemisphere, array, disc\)/],
   ];
   for (const [what, options, pattern] of cases) {
     it(`refuses ${what}`, () => {

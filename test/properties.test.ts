@@ -19,7 +19,7 @@ const contactArbitrary = fc.record({
   donorsLog10: fc.double({ min: 10, max: 22, noNaN: true }),
   donorLevelFraction: fc.option(fc.double({ min: 0, max: 0.5, noNaN: true }), { nil: undefined }),
   temperature: fc.double({ min: 50, max: 1500, noNaN: true }),
-  geometry: fc.constantFrom('planar', 'hemisphere', 'array'),
+  geometry: fc.constantFrom('planar', 'hemisphere', 'array', 'disc'),
   particleDiameter: fc.double({ min: 0.5, max: 50, noNaN: true }),
   statistics: fc.constantFrom('fermi-dirac', 'boltzmann'),
 });

@@ -231,7 +231,7 @@ export function meshNodes(options: MeshOptions): { nodes: number[]; truncated: b
     end = options.maxDomain_m;
     truncated = true;
   }
-  const particleRadius = options.geometry.kind === 'planar' ? Infinity : Math.sqrt(options.geometry.interfaceArea_m2 / (2 * Math.PI));
+  const particleRadius = options.geometry.kind === 'planar' ? Infinity : Math.sqrt((options.geometry.interfaceFluxArea_m2 ?? options.geometry.interfaceArea_m2) / (2 * Math.PI));
   const coreLength = bulkFinite ? fi.bulkScreening_m : fi.effectiveWidth_m;
   let hCore = CORE_CELL_FRACTION * coreLength;
   // the layer's own width bounds the surface cell too: a depletion layer of fully ionised donors in a frozen-out

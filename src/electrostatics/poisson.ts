@@ -243,7 +243,7 @@ function solveControlled(problem: PoissonProblem, tolerance: number): PoissonSol
   // Gauss's law on the discrete system: the flux into the support at x = 0 balances the total charge
   const totalCharge_C = Q_ELEMENTARY_C * chargeSum;
   // Gauss: the normalised flux phi(u'(0)) equals -beta Q / (q A); linear phi(s) = s
-  const interfaceFlux = (-beta * chargeSum) / geometry.interfaceArea_m2;
+  const interfaceFlux = (-beta * chargeSum) / (geometry.interfaceFluxArea_m2 ?? geometry.interfaceArea_m2);
   const interfaceSlope_per_m = flux === null ? interfaceFlux : flux.slopeOfFlux(interfaceFlux);
   const uEnd = fine.u[last]!;
   const farEndFraction = Math.abs(uSurface) > 0 ? Math.abs(uEnd / uSurface) : 0;

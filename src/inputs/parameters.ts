@@ -508,8 +508,10 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
     when: { test: (c) => positive(c, 'localisedSites'), text: 'with --localised-sites' },
   },
   geometry: {
-    flag: '--geometry <KIND>', help: 'planar contact, isolated hemisphere, or particle array', defaultText: 'planar', kind: 'choice',
-    choices: ['planar', 'hemisphere', 'array'], fallback: { value: 'planar' },
+    flag: '--geometry <KIND>',
+    help: 'planar contact; isolated hemisphere (particle sunk into the support, contact 2 pi r^2); particle array (hemispheres); disc (particle resting on the support, touching it through its flat footprint pi r^2)',
+    defaultText: 'planar', kind: 'choice',
+    choices: ['planar', 'hemisphere', 'array', 'disc'], fallback: { value: 'planar' },
   },
   particleDiameter: {
     flag: '--particle-diameter <D>', help: 'particle diameter (nm if bare)', defaultText: '2 nm',

@@ -201,11 +201,15 @@ export function barrierOptions(row: BarrierRow, model: ModelChoice, state: Suppo
   return { ...base(row, row.conditions.temperature_K, model), geometry: 'planar', ...state.options };
 }
 
-/** Hemispherical particle of the measured diameter (or the default) with the row's support state. */
+/**
+ * A particle of the measured diameter (or the default) resting on the support: the disc contact through its flat
+ * footprint (src/electrostatics/geometry.ts, disc), with the row's support state. Until 2026-12-04 evening the
+ * gallery used the sunk-in hemisphere, whose contact 2 pi r^2 is twice the footprint of a particle on a surface.
+ */
 export function chargeOptions(row: ChargeRow, model: ModelChoice, state: SupportStateInputs = rowSupportState(row)): Record<string, unknown> {
   return {
     ...base(row, row.conditions.temperature_K, model),
-    geometry: 'hemisphere',
+    geometry: 'disc',
     particleDiameter: row.conditions.particleDiameter_nm ?? DEFAULT_PARTICLE_DIAMETER_NM,
     ...state.options,
   };
