@@ -27,7 +27,7 @@ function support(donors_m3: number, statistics: SupportElectronic['statistics'] 
   };
 }
 
-/** donor density giving a / L_D = ratio, L_D = sqrt(eps eps0 kT / (q^2 N_D)) (Sze & Ng, Physics of Semiconductor Devices, 3rd ed., ch. 2) */
+/** donor density giving a / L_D = ratio, L_D = sqrt(eps eps0 kT / (q^2 N_D)) (from memory of Sze & Ng, Physics of Semiconductor Devices, 3rd ed., ch. 2, verify) */
 function donorsFor(radius_m: number, ratio: number): number {
   const debye = radius_m / ratio;
   return (EPS * CODATA2018.eps0 * CODATA2018.k * T) / (CODATA2018.q * CODATA2018.q * debye * debye);
@@ -51,7 +51,10 @@ describe('2D disc reference: Laplace limit (nothing screens)', () => {
   // no space charge and the problem is the capacitance of a disc on a dielectric half-space. By symmetry the isolated
   // disc's potential has zero normal derivative on its plane outside the disc, so the half-space problem with a
   // flux-free surface is exactly half of it: Q = 4 eps0 eps_r a V, half of the isolated disc's C = 8 eps0 a
-  // (Jackson, Classical Electrodynamics, 3rd ed., sec. 3.12). u = 0 at finite Z and R_wall adds a little charge.
+  // (from memory of Jackson, Classical Electrodynamics, 3rd ed., sec. 3.12, verify; the isolated disc's potential
+  // Q arcsin(a/u) / (4 pi eps0 a) on the oblate spheroids u, hence C = 8 eps0 a, read in the phys-l mailing-list
+  // archive, "Re: capacitance of a disk", Feb. 2001, https://www.phys-l.org/archives/2001/02_2001/msg00282.html).
+  // u = 0 at finite Z and R_wall adds a little charge.
   const a = 2e-9;
   const bending_eV = 0.3;
   const base = problem(support(0), a, bending_eV);
@@ -85,7 +88,7 @@ describe('2D disc reference: Laplace limit (nothing screens)', () => {
 });
 
 describe('2D disc reference: discrete Gauss law and signs', () => {
-  // Gauss's law (Jackson sec. 1.3) on the discrete system: the flux through the footprint equals the space charge
+  // Gauss's law (common practice, no source) on the discrete system: the flux through the footprint equals the space charge
   // once the layer lies inside the domain (the default domain ends 15 Debye lengths beyond the layer)
   for (const [radius_nm, ratio, bending_eV] of [
     [3, 1, 0.8],
@@ -104,7 +107,7 @@ describe('2D disc reference: discrete Gauss law and signs', () => {
 
 describe('2D disc reference: thin-layer limit (layer << a)', () => {
   // The layer under a disc much wider than it is planar: Q -> pi a^2 Q_planar, Q_planar from the exact first
-  // integral (Sze & Ng, Physics of Semiconductor Devices, 3rd ed., ch. 4; exactPlanarCharge in test/helpers.ts),
+  // integral (from memory of Sze & Ng, Physics of Semiconductor Devices, 3rd ed., ch. 4, verify; exactPlanarCharge in test/helpers.ts),
   // plus the charge round the rim, of order perimeter x layer length / area = 2 L/a relative (an order-of-magnitude
   // estimate, common practice, no source). L = |u_s / u'(0)| of the planar layer (half the depletion width).
   for (const bending_eV of [0.3, 0.8]) {

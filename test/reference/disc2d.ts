@@ -10,7 +10,9 @@
 //   (1/r) d/dr (r du/dr) + d2u/dz2 = beta (N(xi_b - u) - N(xi_b)),   beta = q^2 / (eps eps0 k T)
 // Method: vertex-centred finite volumes on a graded tensor grid, with one node on the disc edge (r = a, z = 0) and
 // the cells shrinking geometrically toward it in r (from both sides) and in z (toward the surface): the field of a
-// disc is singular there like 1/sqrt(distance) (Jackson, Classical Electrodynamics, 3rd ed., sec. 3.12), so the
+// disc is singular there like 1/sqrt(distance) (from memory of Jackson, Classical Electrodynamics, 3rd ed.,
+// sec. 3.12, verify; the charge density of the disc ~ 1/sqrt(a^2 - r^2) follows from the potential read in the
+// phys-l archive, https://www.phys-l.org/archives/2001/02_2001/msg00282.html), so the
 // grid has to resolve every scale from the singularity up to the domain. Damped Newton with a banded LU (the
 // Jacobian is an M-matrix, no pivoting), as in axisymmetric2d.ts.
 // Charges (C, positive when the support is positive, i.e. u_s > 0 depletes an n-type support, as in poisson.ts):
@@ -81,8 +83,8 @@ function graded(length: number, h0: number, n: number): number[] {
 
 /**
  * Screening lengths of the problem, m: the bulk (linear) Debye length 1/sqrt(beta dN/du) and the planar layer
- * length |u_s / u'(0)| with u'(0)^2 = 2 beta int_0^u_s (N - N_b) du (the planar first integral; Sze & Ng, Physics of
- * Semiconductor Devices, 3rd ed., ch. 4), by Simpson's rule here. Infinity when nothing screens.
+ * length |u_s / u'(0)| with u'(0)^2 = 2 beta int_0^u_s (N - N_b) du (the planar first integral; from memory of Sze & Ng, Physics of
+ * Semiconductor Devices, 3rd ed., ch. 4, verify), by Simpson's rule here. Infinity when nothing screens.
  */
 export function screeningLengths(p: DiscProblem): { debye_m: number; layer_m: number } {
   const beta = betaOf(p);
@@ -188,7 +190,8 @@ export function solveDisc(p: DiscProblem): DiscSolution {
   p.model.netCharge(p.bulkReducedFermiLevel, out);
   const residue = out[0]!;
   // initial guess: the Laplace potential of the disc, (2/pi) arcsin(2a / (rho+ + rho-)) with rho+- the distances
-  // to the edge circle (Jackson sec. 3.12), damped over the layer length beyond the disc
+  // to the edge circle (the arcsin(a/u) potential on the oblate spheroids u = (rho+ + rho-)/2, phys-l archive cited
+  // above), damped over the layer length beyond the disc
   const decay = Math.min(Number.isFinite(layer_m) ? layer_m : Infinity, Number.isFinite(debye_m) ? 2 * debye_m : Infinity);
   const u = new Float64Array(n);
   for (let j = 0; j < rowsZ; j++) {
