@@ -553,9 +553,9 @@ function chargeSettled(
 }
 
 /** views per node in one mesh solve's workspace */
-const WORK_ARRAYS = 16;
-/** ... and four more with a field-dependent dielectric (the off-diagonals and face fluxes, current and trial) */
-const NONLINEAR_WORK_ARRAYS = 4;
+const WORK_ARRAYS = 17;
+/** ... and three more with a field-dependent dielectric (the off-diagonals, current and trial) */
+const NONLINEAR_WORK_ARRAYS = 3;
 
 function workArrays(system: DiscreteSystem): number {
   return WORK_ARRAYS + (system.flux !== null ? NONLINEAR_WORK_ARRAYS : 0);
@@ -640,7 +640,7 @@ function newtonOnMesh(
   let lowerNow: Float64Array = lower;
   let trialLower: Float64Array = flux !== null ? take() : lower;
   if (flux !== null) upper = take();
-  const faceFlux = flux !== null ? take() : faceCoefficient;
+  const faceFlux = take();
   const phi = new Float64Array(2);
 
   /** residual R_i = flux out - flux in - beta V_i N_i (and the Jacobian when asked); returns the scaled norm */
@@ -653,13 +653,25 @@ function newtonOnMesh(
     outUpper: Float64Array = faceCoefficient,
     outLower: Float64Array = lower,
   ): number => {
-    if (flux !== null) return evaluateNonlinear(values, out, outDiag, outCharge, outSlope, outUpper, outLower);
+    // face fluxes A phi(s_i) and their slopes k_i = (A/h) phi'(s_i): linear phi(s) = s (k = the fixed face
+    // coefficient, already in outUpper); a field-dependent dielectric evaluates both (NormalisedFlux)
+    if (flux === null) {
+      for (let i = 0; i < last; i++) faceFlux[i] = faceCoefficient[i]! * (values[i + 1]! - values[i]!);
+    } else {
+      for (let i = 0; i < last; i++) {
+        const h = x[i + 1]! - x[i]!;
+        flux.at((values[i + 1]! - values[i]!) / h, phi);
+        faceFlux[i] = faceCoefficient[i]! * h * phi[0]!;
+        outUpper[i] = faceCoefficient[i]! * phi[1]!;
+      }
+    }
     let norm = 0;
     for (let i = 1; i < n; i++) {
       model.netCharge(xiBulk - values[i]!, charge);
-      const right = i < last ? faceCoefficient[i]! : 0;
-      const left = faceCoefficient[i - 1]!;
-      let r = (i < last ? right * (values[i + 1]! - values[i]!) : 0) - left * (values[i]! - values[i - 1]!) - betaVolume[i]! * (charge[0]! - residue);
+      const right = i < last ? outUpper[i]! : 0;
+      const left = outUpper[i - 1]!;
+      if (flux !== null) outLower[i] = i > 1 ? left : 0;
+      let r = (i < last ? faceFlux[i]! : 0) - faceFlux[i - 1]! - betaVolume[i]! * (charge[0]! - residue);
       let d = -right - left + betaVolume[i]! * charge[1]!;
       if (i === last && farEnd !== null) {
         // outward flux A u' = -A g(u) through the far end
@@ -678,46 +690,6 @@ function newtonOnMesh(
     }
     return Math.sqrt(norm / (n - 1));
   };
-
-  /** evaluate() with the face flux A phi((u_(i+1) - u_i)/h) of a field-dependent dielectric (same scaled norm) */
-  function evaluateNonlinear(
-    values: Float64Array,
-    out: Float64Array,
-    outDiag: Float64Array,
-    outCharge: Float64Array,
-    outSlope: Float64Array,
-    outUpper: Float64Array,
-    outLower: Float64Array,
-  ): number {
-    for (let i = 0; i < last; i++) {
-      const h = x[i + 1]! - x[i]!;
-      flux!.at((values[i + 1]! - values[i]!) / h, phi);
-      faceFlux[i] = faceCoefficient[i]! * h * phi[0]!;
-      outUpper[i] = faceCoefficient[i]! * phi[1]!;
-    }
-    let norm = 0;
-    for (let i = 1; i < n; i++) {
-      model.netCharge(xiBulk - values[i]!, charge);
-      const right = i < last ? outUpper[i]! : 0;
-      const left = outUpper[i - 1]!;
-      outLower[i] = i > 1 ? left : 0;
-      let r = (i < last ? faceFlux[i]! : 0) - faceFlux[i - 1]! - betaVolume[i]! * (charge[0]! - residue);
-      let d = -right - left + betaVolume[i]! * charge[1]!;
-      if (i === last && farEnd !== null) {
-        farEnd.flux(values[i]!, x[i]!, endFlux);
-        r -= endArea * endFlux[0]!;
-        d -= endArea * endFlux[1]!;
-        system.endFluxSlope = endArea * endFlux[1]!;
-      }
-      out[i] = r;
-      outCharge[i] = charge[0]! - residue;
-      outSlope[i] = -charge[1]!;
-      outDiag[i] = d;
-      const scaled = r / d;
-      norm += scaled * scaled;
-    }
-    return Math.sqrt(norm / (n - 1));
-  }
 
   let iterations = 0;
   let u: Float64Array = initial;
