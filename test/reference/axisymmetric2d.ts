@@ -10,16 +10,10 @@
 // inside the particle takes the particle value at the boundary crossing along the grid line (Shortley & Weller,
 // J. Appl. Phys. 9, 334 (1938)); damped Newton with a banded LU (the Jacobian is an M-matrix, no pivoting).
 // Total support charge = sum of q N V over the cut control volumes.
-import type { ChargeModel } from '../../src/bulk/equilibrium.js';
 import { CODATA2018 } from '../helpers.js';
+import { dampedNewton, graded, solveBandedInPlace, type SupportProblem } from './grid2d.js';
 
-export interface CellProblem {
-  model: ChargeModel;
-  bulkReducedFermiLevel: number;
-  /** u_s = band bending / kT */
-  surfaceBending: number;
-  relativePermittivity: number;
-  temperature_K: number;
+export interface CellProblem extends SupportProblem {
   radius_m: number;
   particleDensity_m2: number;
   /** depth of the bulk boundary, m */
@@ -35,29 +29,6 @@ export interface CellSolution {
   nodes: number;
 }
 
-/** graded nodes on [0, L]: first cell ~h0, geometric growth, exactly n+1 nodes */
-function graded(length: number, h0: number, n: number): number[] {
-  // find growth g with h0 (g^n - 1)/(g - 1) = L by bisection
-  let lo = 1;
-  let hi = 2;
-  const total = (g: number): number => (Math.abs(g - 1) < 1e-12 ? h0 * n : (h0 * (Math.pow(g, n) - 1)) / (g - 1));
-  if (total(1) >= length) return Array.from({ length: n + 1 }, (_, i) => (i * length) / n);
-  while (total(hi) < length) hi *= 1.5;
-  for (let k = 0; k < 200; k++) {
-    const mid = 0.5 * (lo + hi);
-    if (total(mid) < length) lo = mid;
-    else hi = mid;
-  }
-  const g = 0.5 * (lo + hi);
-  const out = [0];
-  let h = h0;
-  for (let i = 0; i < n; i++) {
-    out.push(out[i]! + h);
-    h *= g;
-  }
-  const scale = length / out[n]!;
-  return out.map((v) => v * scale);
-}
 
 export function solveCell(p: CellProblem): CellSolution {
   const a = p.radius_m;
@@ -139,7 +110,6 @@ export function solveCell(p: CellProblem): CellSolution {
   const bw = cols;
   const width = 2 * bw + 1;
   const band = new Float64Array(n * width);
-  const rhs = new Float64Array(n);
   const res = new Float64Array(n);
   const out = new Float64Array(2);
   const residue = (() => {
@@ -188,48 +158,10 @@ export function solveCell(p: CellProblem): CellSolution {
     }
     return Math.sqrt(norm / n);
   };
-  const solveBand = (b: Float64Array): void => {
-    // LU without pivoting on the band, in place
-    for (let k = 0; k < n; k++) {
-      const pivot = band[k * width + bw]!;
-      for (let row = k + 1; row <= Math.min(n - 1, k + bw); row++) {
-        const lk = band[row * width + bw + (k - row)]!;
-        if (lk === 0) continue;
-        const factor = lk / pivot;
-        band[row * width + bw + (k - row)] = 0;
-        for (let col = k + 1; col <= Math.min(n - 1, k + bw); col++) band[row * width + bw + (col - row)] -= factor * band[k * width + bw + (col - k)]!;
-        b[row] -= factor * b[k]!;
-      }
-    }
-    for (let k = n - 1; k >= 0; k--) {
-      let sum = b[k]!;
-      for (let col = k + 1; col <= Math.min(n - 1, k + bw); col++) sum -= band[k * width + bw + (col - k)]! * b[col]!;
-      b[k] = sum / band[k * width + bw]!;
-    }
-  };
-  let iterations = 0;
-  const cap = Math.max(5, 0.25 * Math.abs(us));
-  const trial = new Float64Array(n);
-  for (; iterations < 200; iterations++) {
-    const norm = residual(u, true);
-    for (let k = 0; k < n; k++) rhs[k] = -res[k]!;
-    solveBand(rhs);
-    let maxStep = 0;
-    for (let k = 0; k < n; k++) maxStep = Math.max(maxStep, Math.abs(rhs[k]!));
-    if (maxStep < 1e-9 * Math.max(1, Math.abs(us))) {
-      for (let k = 0; k < n; k++) u[k] += rhs[k]!;
-      break;
-    }
-    let t = Math.min(1, cap / maxStep);
-    for (let h = 0; h < 40; h++) {
-      for (let k = 0; k < n; k++) trial[k] = u[k]! + t * rhs[k]!;
-      const trialNorm = residual(trial, false);
-      if (trialNorm < (1 - 0.1 * t) * norm || t * maxStep < 1e-10) break;
-      t *= 0.5;
-    }
-    u.set(trial);
-  }
-  if (iterations >= 200) throw new Error('2D reference: Newton did not converge');
+  const solveBand = (b: Float64Array): void => solveBandedInPlace(band, width, bw, n, b);
+
+  const iterations = dampedNewton(u, res, residual, solveBand, { cap: Math.max(5, 0.25 * Math.abs(us)), stepTolerance: 1e-9 * Math.max(1, Math.abs(us)), minStep: 1e-10, maxIterations: 200 });
+  if (iterations === null) throw new Error('2D reference: Newton did not converge');
   let chargeSum = 0;
   for (let k = 0; k < n; k++) {
     if (metal[k]) continue;

@@ -21,16 +21,10 @@
 //                  the footprint nodes' control volumes. It is the charge the support holds against the particle
 //                  whether that charge is space charge (then it equals charge_C up to the flux leaving at z = Z)
 //                  or, with nothing screening (N = 0), the charge at the bulk boundary: the capacitance problem.
-import type { ChargeModel } from '../../src/bulk/equilibrium.js';
 import { CODATA2018 } from '../helpers.js';
+import { dampedNewton, graded, solveBandedInPlace, type SupportProblem } from './grid2d.js';
 
-export interface DiscProblem {
-  model: ChargeModel;
-  bulkReducedFermiLevel: number;
-  /** u_s = band bending / kT */
-  surfaceBending: number;
-  relativePermittivity: number;
-  temperature_K: number;
+export interface DiscProblem extends SupportProblem {
   /** radius a of the contact disc, m */
   radius_m: number;
   /** radius of the zero-flux wall, m (default: a + depth, see defaultDomain) */
@@ -57,29 +51,6 @@ export interface DiscSolution {
   layerLength_m: number;
 }
 
-/** Graded nodes on [0, L]: first cell h0, geometric growth, exactly n + 1 nodes (uniform if h0 n >= L). */
-function graded(length: number, h0: number, n: number): number[] {
-  // growth g with h0 (g^n - 1)/(g - 1) = L, by bisection
-  const total = (g: number): number => (Math.abs(g - 1) < 1e-12 ? h0 * n : (h0 * (Math.pow(g, n) - 1)) / (g - 1));
-  if (total(1) >= length) return Array.from({ length: n + 1 }, (_, i) => (i * length) / n);
-  let lo = 1;
-  let hi = 2;
-  while (total(hi) < length) hi *= 1.5;
-  for (let k = 0; k < 200; k++) {
-    const mid = 0.5 * (lo + hi);
-    if (total(mid) < length) lo = mid;
-    else hi = mid;
-  }
-  const g = 0.5 * (lo + hi);
-  const out = [0];
-  let h = h0;
-  for (let i = 0; i < n; i++) {
-    out.push(out[i]! + h);
-    h *= g;
-  }
-  const scale = length / out[n]!;
-  return out.map((v) => v * scale);
-}
 
 /**
  * Screening lengths of the problem, m: the bulk (linear) Debye length 1/sqrt(beta dN/du) and the planar layer
@@ -249,59 +220,12 @@ export function solveDisc(p: DiscProblem): DiscSolution {
     }
     return Math.sqrt(norm / Math.max(1, free));
   };
-  const solveBand = (b: Float64Array): void => {
-    // LU without pivoting on the band, in place (the footprint rows are identity rows with zero right-hand side)
-    for (let k = 0; k < n; k++) {
-      const pivot = band[k * width + bw]!;
-      const last = Math.min(n - 1, k + bw);
-      for (let row = k + 1; row <= last; row++) {
-        const at = row * width + bw + (k - row);
-        const lk = band[at]!;
-        if (lk === 0) continue;
-        const factor = lk / pivot;
-        band[at] = 0;
-        const rowBase = row * width + bw - row;
-        const kBase = k * width + bw - k;
-        for (let col = k + 1; col <= last; col++) band[rowBase + col] -= factor * band[kBase + col]!;
-        b[row] -= factor * b[k]!;
-      }
-    }
-    for (let k = n - 1; k >= 0; k--) {
-      let sum = b[k]!;
-      const last = Math.min(n - 1, k + bw);
-      const kBase = k * width + bw - k;
-      for (let col = k + 1; col <= last; col++) sum -= band[kBase + col]! * b[col]!;
-      b[k] = sum / band[k * width + bw]!;
-    }
-  };
-  let iterations = 0;
+  const solveBand = (b: Float64Array): void => solveBandedInPlace(band, width, bw, n, b);
+
   // cap on the largest Newton step, kT units: the exponential carrier densities punish overshoots
-  const cap = Math.max(5, 0.25 * Math.abs(us));
-  const step = new Float64Array(n);
-  const trial = new Float64Array(n);
-  let converged = false;
-  for (; iterations < 300; iterations++) {
-    const norm = residual(u, true);
-    for (let k = 0; k < n; k++) step[k] = -res[k]!;
-    solveBand(step);
-    let maxStep = 0;
-    for (let k = 0; k < n; k++) maxStep = Math.max(maxStep, Math.abs(step[k]!));
-    if (!Number.isFinite(maxStep)) throw new Error('2D disc reference: non-finite Newton step');
-    if (maxStep < 1e-10 * Math.max(1, Math.abs(us))) {
-      for (let k = 0; k < n; k++) u[k] += step[k]!;
-      converged = true;
-      break;
-    }
-    let t = Math.min(1, cap / maxStep);
-    for (let h = 0; h < 40; h++) {
-      for (let k = 0; k < n; k++) trial[k] = u[k]! + t * step[k]!;
-      const trialNorm = residual(trial, false);
-      if (trialNorm < (1 - 0.1 * t) * norm || t * maxStep < 1e-12) break;
-      t *= 0.5;
-    }
-    u.set(trial);
-  }
-  if (!converged) throw new Error('2D disc reference: Newton did not converge in 300 iterations');
+  const newton = dampedNewton(u, res, residual, solveBand, { cap: Math.max(5, 0.25 * Math.abs(us)), stepTolerance: 1e-10 * Math.max(1, Math.abs(us)), minStep: 1e-12, maxIterations: 300 });
+  if (newton === null) throw new Error('2D disc reference: Newton did not converge in 300 iterations');
+  const iterations = newton;
   // charges from the converged field
   let chargeSum = 0;
   let fluxSum = 0;
