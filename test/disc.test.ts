@@ -101,3 +101,16 @@ describe('disc contact against closed forms', () => {
     expect(d.geometry).toBe('disc');
   });
 });
+
+describe('report assumptions name the model that was solved', () => {
+  it('interface-states and disc contacts are described as such, not as an ideal contact (common practice, no source)', async () => {
+    const { contactAssumptions } = await import('../src/output/report.js');
+    const r = solveContact({ metal: 'Pt', support: 'SrTiO3', geometry: 'disc', donors: '1e20', particleDiameter: '3 nm' });
+    expect(r.barrierModel).toBe('interface-states');
+    const text = contactAssumptions(r).join(' ');
+    expect(text).toContain('Cowley & Sze');
+    expect(text).not.toContain('Ideal contact');
+    expect(text).toContain('resting on its flat footprint');
+    expect(text).toContain('field-dependent (Landau–Devonshire) permittivity');
+  });
+});

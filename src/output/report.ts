@@ -82,15 +82,27 @@ export function contactAssumptions(result: ContactResult): string[] {
       ? 'Interface states are included only through the pinned-barrier model (charge-neutrality level and pinning factor).'
       : result.barrierModel === 'given'
         ? 'The barrier height was given as an input; interface states are not modelled.'
-        : 'Ideal contact: no interface states, the barrier follows the work-function difference (Schottky–Mott limit).';
+        : result.barrierModel === 'interface-states'
+          ? 'Interface states (Bardeen; Cowley & Sze): a uniform density per eV around a charge-neutrality level, behind a thin ' +
+            'interfacial layer, solved together with the space charge; the particle counts the interface-state charge under its contact.'
+          : 'Ideal contact: no interface states, the barrier follows the work-function difference (Schottky–Mott limit).';
+  const geometry: Record<string, string> = {
+    planar: 'a planar contact (per unit area)',
+    hemisphere: 'a hemispherical particle sunk into the support (radial depth; contact 2 pi r^2)',
+    array: "one particle's cell of a particle array (spherical zones joined to the cell's footprint)",
+    disc: "a particle resting on its flat footprint (depth on the axis; the disc's oblate-spheroidal equipotentials)",
+  };
+  const dielectric =
+    result.permittivityNonlinearity_V_m5_per_C3 > 0
+      ? `Continuum electrostatics with a field-dependent (Landau–Devonshire) permittivity of the support, ${formatNumber(result.interfacePermittivity)} at the interface field; `
+      : 'Continuum electrostatics with the static permittivity of the support; ';
   return [
     'Thermodynamic equilibrium: one Fermi level through metal and support, no current, no illumination.',
-    `One-dimensional equilibrium Poisson equation along the depth into the support (geometry: ${result.geometry}), ` +
+    `One-dimensional equilibrium Poisson equation along the depth into the support (geometry: ${result.geometry}, ${geometry[result.geometry] ?? result.geometry}), ` +
       `solved on ${result.solver.meshPoints} mesh points over ${formatNumber(result.solver.domainLength_nm)} nm.`,
     stats,
     barrier,
-    'Continuum electrostatics with the static permittivity of the support; no atomistic or quantum-size effects ' +
-      'beyond the reported charging energy; image-force lowering is a separate estimate.',
+    dielectric + 'no atomistic or quantum-size effects beyond the reported charging energy; image-force lowering is a separate estimate.',
     'Bulk band parameters and defect levels as listed under Inputs; adsorbates, surface reconstruction and gas-phase reactions are not modelled.',
   ];
 }
