@@ -13,6 +13,8 @@ Examples:
   bandbend contact --metal Pt --support ZnO --donors 1e18
   bandbend contact --metal Au --support TiO2-anatase --geometry hemisphere --particle-diameter 3nm --json
   bandbend contact --work-function 5.3 --electron-affinity 4.2 --band-gap 3.2 --permittivity 10 --donors "5e17 cm^-3"
+  bandbend contact --metal Pd --support CeO2 --geometry disc --particle-diameter 2nm --reduction-temperature 900K --oxygen-pressure 1e-13
+  bandbend contact --metal Au --support SrTiO3 --donors 1e20 --permittivity-nonlinearity 0   # linear dielectric, for comparison
   bandbend contact --metal Pd --support CeO2 --geometry array --particle-density 1e12 --uncertainty 200 --seed 7
   bandbend contact --metal Pt --support CeO2 --reduction-temperature 673K --hydrogen-to-water 100 --temperature 473K --report out/pt-ceo2
   bandbend contact --metal Pt --support TiO2-anatase --fit-from examples/mott-schottky-sample.fit.json`;
