@@ -14,7 +14,7 @@ import {
   type InterfaceAlignment,
   type InterfaceStateParameters,
 } from './interface/interfaceStates.js';
-import { PLANAR, disc, hemisphere, particleArray, type CrossSection } from './electrostatics/geometry.js';
+import { PLANAR, disc, discArray, hemisphere, particleArray, type CrossSection } from './electrostatics/geometry.js';
 import { solvePoisson, REFINE_ABOVE, type PoissonSolution } from './electrostatics/poisson.js';
 import { idealParticleAlignment, particleDensityOfStates_per_eV, particleWorkFunction_eV } from './derived/finiteParticle.js';
 import { particleAtoms, chargingSummary, effectivePermittivity, meanSpacing_m, type ParticleAtomCount } from './derived/particle.js';
@@ -78,6 +78,7 @@ const GEOMETRIES: Readonly<Record<GeometryKind, (r: ResolvedContact) => CrossSec
   hemisphere: (r) => hemisphere(r.particleDiameter_m / 2),
   array: (r) => particleArray(r.particleDiameter_m / 2, r.particleDensity_m2!),
   disc: (r) => disc(r.particleDiameter_m / 2),
+  'disc-array': (r) => discArray(r.particleDiameter_m / 2, r.particleDensity_m2!),
 };
 
 function chargeModelOf(r: ResolvedContact): ChargeModel {

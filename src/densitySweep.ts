@@ -26,7 +26,8 @@ export function sweepParticleDensity(options: ContactOptions, densities_cm2: rea
   const { uncertainty: _samples, seed: _seed, ...base } = options;
   return densities_cm2.map((density) => {
     try {
-      const r = solveContact({ ...base, geometry: 'array', particleDensity: density });
+      // particles resting on their footprint stay so in the sweep; every other geometry sweeps the hemisphere array
+      const r = solveContact({ ...base, geometry: base.geometry === 'disc' || base.geometry === 'disc-array' ? 'disc-array' : 'array', particleDensity: density });
       return {
         particleDensity_cm2: density,
         electronsPerParticle: r.electronsPerParticle,

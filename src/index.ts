@@ -19,7 +19,7 @@ export type { ChargeModel, BulkState, SupportElectronic, DonorSpec, AcceptorSpec
 export { barrierHeight, empiricalPinningFactor, imageForceLowering_eV } from './barrier/barrier.js';
 export { solvePoisson } from './electrostatics/poisson.js';
 export type { PoissonProblem, PoissonSolution } from './electrostatics/poisson.js';
-export { PLANAR, disc, hemisphere, particleArray, crossSectionFromFunction, type CrossSection } from './electrostatics/geometry.js';
+export { PLANAR, disc, discArray, hemisphere, particleArray, crossSectionFromFunction, type CrossSection } from './electrostatics/geometry.js';
 export { particleAtoms, chargingEnergy_eV, meanSpacing_m } from './derived/particle.js';
 export { thermionicExchangeCurrent_A_per_m2, equilibrationTime_s, richardsonConstant_A_per_m2_K2 } from './derived/exchange.js';
 export { fitMottSchottky, parseCapacitanceCsv } from './derived/mottSchottky.js';

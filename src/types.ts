@@ -3,7 +3,7 @@
 import type { InputProvenance } from './materials/types.js';
 
 export type FlowDirection = 'support-to-metal' | 'metal-to-support' | 'none';
-export type GeometryKind = 'planar' | 'hemisphere' | 'array' | 'disc';
+export type GeometryKind = 'planar' | 'hemisphere' | 'array' | 'disc' | 'disc-array';
 export type Statistics = 'fermi-dirac' | 'boltzmann';
 export type BarrierModel = 'interface-states' | 'ideal' | 'pinned' | 'given';
 

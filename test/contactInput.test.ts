@@ -31,14 +31,14 @@ describe('contact inputs: refused combinations name the conflict', () => {
     ['the given model without a barrier', tungstenOnSilicon({ barrierModel: 'given' }), /^--barrier: missing/],
     ['a pinning factor without the pinned model', tungstenOnSilicon({ pinningFactor: 0.3 }), /^--pinning-factor: only used with --barrier-model pinned/],
     ['a particle density outside the array geometry', tungstenOnSilicon({ particleDensity: 1e11 }), /^--particle-density: only used with --geometry array/],
-    ['the array geometry without a density', tungstenOnSilicon({ geometry: 'array' }), /^--particle-density: the array geometry needs a particle density/],
+    ['the array geometry without a density', tungstenOnSilicon({ geometry: 'array' }), /^--particle-density: the array geometries need a particle density/],
     ['a second donor level without the first', tungstenOnSilicon({ donorType: 'double', donorLevel2: 0.3 }), /^--donor-level2: only used with --donor-level and --donor-type double/],
     ['a double donor with one level', tungstenOnSilicon({ donorType: 'double', donorLevel: 0.1 }), /^--donor-level2: missing/],
     ['a seed without sampling', tungstenOnSilicon({ seed: 3 }), /^--seed: only used with --uncertainty N > 0/],
     ['a shift source without a shift', tungstenOnSilicon({ workFunctionShiftSource: 'XPS' }), /^--work-function-shift-source: only used with --work-function-shift/],
     ['a formula next to a given affinity', tungstenOnSilicon({ supportFormula: 'ZnO' }), /^--support-formula: only used without --electron-affinity and --support/],
     ['a fractional sample count', tungstenOnSilicon({ uncertainty: 2.5 }), /^--uncertainty: expected a whole number/],
-    ['an unknown choice', tungstenOnSilicon({ geometry: 'cube' as ContactOptions['geometry'] }), /^--geometry: unknown geometry "cube" \(allowed: planar, hemisphere, array, disc\)/],
+    ['an unknown choice', tungstenOnSilicon({ geometry: 'cube' as ContactOptions['geometry'] }), /^--geometry: unknown geometry "cube" \(allowed: planar, hemisphere, array, disc, disc-array\)/],
   ];
   for (const [what, options, pattern] of cases) {
     it(`refuses ${what}`, () => {

@@ -114,3 +114,16 @@ describe('report assumptions name the model that was solved', () => {
     expect(text).toContain('field-dependent (Landau–Devonshire) permittivity');
   });
 });
+
+describe('disc-array: resting particles at an areal density', () => {
+  it('sparse particles (1e10 cm^-2, cells 56 nm wide) carry the isolated disc charge; dense ones less, and the zones overlap', () => {
+    const base = { metal: 'Pt', support: 'TiO2-anatase', particleDiameter: '3 nm', donors: '1e19', temperature: '473 K' } as const;
+    const isolated = solveContact({ ...base, geometry: 'disc' });
+    const sparse = solveContact({ ...base, geometry: 'disc-array', particleDensity: '1e10' });
+    const dense = solveContact({ ...base, geometry: 'disc-array', particleDensity: '5e12' });
+    expect(Math.abs(sparse.electronsPerParticle / isolated.electronsPerParticle - 1)).toBeLessThan(0.01);
+    expect(Math.abs(dense.electronsPerParticle)).toBeLessThan(Math.abs(sparse.electronsPerParticle));
+    expect(dense.particle.zonesOverlap).toBe(true);
+    expect(dense.geometry).toBe('disc-array');
+  });
+});

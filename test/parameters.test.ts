@@ -38,12 +38,12 @@ describe('parameter table', () => {
     expect(temperature.description).toBe(helpText(row('temperature')));
     expect(temperature.description).toContain('(default: 300 K)');
     const geometry = command.options.find((o) => o.long === '--geometry')!;
-    expect(geometry.argChoices).toEqual(['planar', 'hemisphere', 'array', 'disc']);
+    expect(geometry.argChoices).toEqual(['planar', 'hemisphere', 'array', 'disc', 'disc-array']);
   });
   it('generates the study fields: every option, categorical where the row is', () => {
     expect(Object.keys(CONTACT_FIELDS).sort()).toEqual([...OPTION_NAMES].sort());
     expect(CONTACT_FIELDS.donors).toEqual({ kind: 'quantity', quantity: 'volumeDensity' });
-    expect(CONTACT_FIELDS.geometry).toEqual({ kind: 'choice', choices: ['planar', 'hemisphere', 'array', 'disc'] });
+    expect(CONTACT_FIELDS.geometry).toEqual({ kind: 'choice', choices: ['planar', 'hemisphere', 'array', 'disc', 'disc-array'] });
     expect(CONTACT_FIELDS.metal).toEqual({ kind: 'text', categorical: true });
   });
   it('limits are ordered and quantities name their kind; sampled rows have a rule', () => {

@@ -19,7 +19,7 @@ const contactArbitrary = fc.record({
   donorsLog10: fc.double({ min: 10, max: 22, noNaN: true }),
   donorLevelFraction: fc.option(fc.double({ min: 0, max: 0.5, noNaN: true }), { nil: undefined }),
   temperature: fc.double({ min: 50, max: 1500, noNaN: true }),
-  geometry: fc.constantFrom('planar', 'hemisphere', 'array', 'disc'),
+  geometry: fc.constantFrom('planar', 'hemisphere', 'array', 'disc', 'disc-array'),
   particleDiameter: fc.double({ min: 0.5, max: 50, noNaN: true }),
   statistics: fc.constantFrom('fermi-dirac', 'boltzmann'),
 });
@@ -40,7 +40,7 @@ function optionsOf(s: Sample): ContactOptions {
     geometry: s.geometry as ContactOptions['geometry'],
     particleDiameter: s.particleDiameter,
     // keep particles apart: the spacing must exceed the diameter
-    ...(s.geometry === 'array' ? { particleDensity: Math.min(1e12, 0.5 / (s.particleDiameter * 1e-7) ** 2) } : {}),
+    ...(s.geometry === 'array' || s.geometry === 'disc-array' ? { particleDensity: Math.min(1e12, 0.5 / (s.particleDiameter * 1e-7) ** 2) } : {}),
     statistics: s.statistics as ContactOptions['statistics'],
     materials: EMPTY,
   };

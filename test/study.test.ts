@@ -201,7 +201,7 @@ describe('study file validation', () => {
     rejects({ ...ok, sweep: { axes: [{ field: 'donors', log: { from: 0, to: 1e19, points: 3 } }] } }, 'study.yaml: sweep.axes[0].log.from: expected a number > 0');
     rejects({ ...ok, base: { temperature: Number.NaN } }, /^study\.yaml: base\.temperature: expected a number/);
     rejects({ ...ok, base: { temperature: '300 eV' } }, /^study\.yaml: base\.temperature: .*wrong dimension/);
-    rejects({ ...ok, base: { geometry: 'cube' } }, /base\.geometry: expected one of planar, hemisphere, array, disc/);
+    rejects({ ...ok, base: { geometry: 'cube' } }, /base\.geometry: expected one of planar, hemisphere, array, disc, disc-array/);
   });
 
   it('rejects unknown keys with one line naming the key', () => {

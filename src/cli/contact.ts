@@ -46,7 +46,7 @@ async function runContact(opts: Record<string, unknown>): Promise<void> {
     await prepareReportDir(dir, opts['force'] === true);
     const title = `${result.metal} on ${result.support}`;
     // particle arrays: how the charge per particle depends on loading belongs in the write-up
-    const extraSections = result.geometry === 'array' ? [await densitySweepSection(dir, sweepParticleDensity(options), title)] : [];
+    const extraSections = result.geometry === 'array' || result.geometry === 'disc-array' ? [await densitySweepSection(dir, sweepParticleDensity(options), title)] : [];
     const paths = await writeContactReport(dir, result, { title, force: true, extraSections });
     if (opts['json'] !== true) notice(`report written: ${paths.htmlPath}`);
   }

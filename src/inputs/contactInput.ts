@@ -215,8 +215,8 @@ const CROSS_RULES: { option: OptionName; refuse: (o: ContactOptions, c: Resoluti
   },
   {
     option: 'particleDensity',
-    refuse: (o, c) => c.value('geometry') === 'array' && o.particleDensity === undefined,
-    message: 'the array geometry needs a particle density',
+    refuse: (o, c) => (c.value('geometry') === 'array' || c.value('geometry') === 'disc-array') && o.particleDensity === undefined,
+    message: 'the array geometries need a particle density',
     allowed: `${row('particleDensity').limits!.map((v) => toDisplay(row('particleDensity'), v)).join(' to ')} cm^-2`,
   },
 ];

@@ -509,9 +509,9 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
   },
   geometry: {
     flag: '--geometry <KIND>',
-    help: 'planar contact; isolated hemisphere (particle sunk into the support, contact 2 pi r^2); particle array (hemispheres); disc (particle resting on the support, touching it through its flat footprint pi r^2)',
+    help: 'planar contact; isolated hemisphere (particle sunk into the support, contact 2 pi r^2); particle array (hemispheres); disc (particle resting on the support, touching it through its flat footprint pi r^2); disc-array (resting particles at --particle-density)',
     defaultText: 'planar', kind: 'choice',
-    choices: ['planar', 'hemisphere', 'array', 'disc'], fallback: { value: 'planar' },
+    choices: ['planar', 'hemisphere', 'array', 'disc', 'disc-array'], fallback: { value: 'planar' },
   },
   particleDiameter: {
     flag: '--particle-diameter <D>', help: 'particle diameter (nm if bare)', defaultText: '2 nm',
@@ -519,7 +519,7 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
   },
   particleDensity: {
     flag: '--particle-density <N>', help: 'particles per area (cm^-2 if bare)', kind: 'quantity', quantity: 'arealDensity', limits: [1e10, 1e19],
-    label: 'particle density', when: { test: (c) => c.value('geometry') === 'array', text: 'with --geometry array' },
+    label: 'particle density', when: { test: (c) => c.value('geometry') === 'array' || c.value('geometry') === 'disc-array', text: 'with --geometry array or disc-array' },
   },
   supportThickness: {
     flag: '--support-thickness <L>', help: 'support grain thickness (nm if bare)', defaultText: 'semi-infinite',
