@@ -345,11 +345,11 @@ function historyRelaxation(c: SolvedContact, barrier_eV: number, massRatio: numb
 }
 
 /**
- * Quartic Landau coefficient beta of SrTiO3 at room temperature, V m^5 C^-3, ~8e9 (value recalled from memory, verify;
- * see devonshirePermittivity): used only to state in a warning roughly how far a high static permittivity falls at the
- * interface field, never in the solve.
+ * Quartic Landau coefficient beta used only to state in the field-dependent-permittivity warning roughly how far a
+ * high static permittivity falls at the interface field when the solve was linear: the library's SrTiO3 value
+ * (materials/supports.json, permittivityNonlinearity_V_m5_per_C3: 4 alpha_11, flagged from memory), V m^5 C^-3.
  */
-const SRTIO3_LIKE_BETA = 8e9;
+const SRTIO3_LIKE_BETA = 6.8e9;
 
 /** What the warning rules need, read off the physics. */
 function warningFacts(p: ContactPhysics): WarningFacts {
