@@ -234,3 +234,20 @@ describe('random hemisphere cases with a field-dependent dielectric', () => {
     }
   });
 });
+
+describe('planar Q(V) of the exchange kinetics with the field-dependent dielectric (src/derived/exchange.ts)', () => {
+  it('Q(V) equals the Poisson solve to 1e-5 and dQ/dV its central difference to 1e-5 (first integral with D(E), Sze & Ng ch. 4)', async () => {
+    const { planarChargeOfBending } = await import('../src/derived/exchange.js');
+    const s = support({ donors: { density_m3: 1e26, kind: 'single' } });
+    const model = makeChargeModel(s);
+    const bulk = solveBulkNeutrality(model);
+    const q = planarChargeOfBending(model, bulk.reducedFermiLevel, EPS_STATIC, 300, law);
+    for (const bb of [-0.3, 0.2, 0.7, 1.1]) {
+      const poisson = solvePoisson({ model, bulkReducedFermiLevel: bulk.reducedFermiLevel, surfaceBending: bb / model.kT_eV, relativePermittivity: EPS_STATIC, dielectric: law, temperature_K: 300, geometry: PLANAR });
+      expect(Math.abs(q(bb) / poisson.totalCharge_C - 1), `${bb} eV`).toBeLessThan(1e-5);
+      const h = 1e-5;
+      const numeric = (q(bb + h) - q(bb - h)) / (2 * h);
+      expect(Math.abs(q.capacitance(bb)! / numeric - 1), `${bb} eV`).toBeLessThan(1e-5);
+    }
+  });
+});
