@@ -251,3 +251,32 @@ describe('planar Q(V) of the exchange kinetics with the field-dependent dielectr
     }
   });
 });
+
+describe('SrTiO3 static permittivity at the contact temperature (Curie-Weiss)', () => {
+  // Curie-Weiss law eps = C / (T - T0) with T0 = 30 +/- 2 K, satisfied from 60 to 300 K (Neville, Hoeneisen & Mead,
+  // J. Appl. Phys. 43, 2124 (1972), abstract), C fixed by the room-temperature 316.3 (Krupka et al., arXiv:1508.07550)
+  const C = 316.3 * (300 - 30);
+  it('300 K keeps the measured 316.3; 473 K and 773 K follow C / (T - T0); a given permittivity is not rescaled', async () => {
+    const { resolveContact } = await import('../src/inputs/contactInput.js');
+    const at = (temperature: string, extra: Record<string, unknown> = {}) => resolveContact({ metal: 'Pt', support: 'SrTiO3', temperature, ...extra }).support.permittivity;
+    expect(at('300 K')).toBeCloseTo(316.3, 10);
+    expect(at('473 K') / (C / (473 - 30))).toBeCloseTo(1, 12);
+    expect(at('773 K') / (C / (773 - 30))).toBeCloseTo(1, 12);
+    expect(at('473 K', { permittivity: 250 })).toBe(250);
+    // below 60 K the law fails (quantum paraelectric): held at the 60 K value
+    expect(at('55 K') / (C / (60 - 30))).toBeCloseTo(1, 12);
+    // independent check: the phase-field Landau coefficient alpha_1 = 7.06e5 (T - 35.5) J m C^-2 (public script, see
+    // the library note; attribution to Pertsev et al. 2000 from memory, verify) gives eps = 1 / (2 alpha_1 eps0):
+    // within 10% at 473 K
+    const landau = 1 / (2 * 7.06e5 * (473 - 35.5) * CODATA2018.eps0);
+    expect(Math.abs(at('473 K') / landau - 1)).toBeLessThan(0.1);
+  });
+  it('--uncertainty samples the published range carried to the temperature', async () => {
+    const { resolveContact } = await import('../src/inputs/contactInput.js');
+    const { samplingRanges } = await import('../src/derived/uncertainty.js');
+    const r = resolveContact({ metal: 'Pt', support: 'SrTiO3', temperature: '473 K' });
+    const range = samplingRanges(r).get('permittivity')!;
+    expect(range[0] / (314.1 * 270 / 443)).toBeCloseTo(1, 12);
+    expect(range[1] / (318.5 * 270 / 443)).toBeCloseTo(1, 12);
+  });
+});

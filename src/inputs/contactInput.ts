@@ -140,6 +140,7 @@ class Resolution implements RowContext {
 /** Inputs computed from others when the user does not give them (tried before the library value). */
 const DERIVED: Partial<Record<OptionName, (c: Resolution) => number | undefined>> = {
   electronAffinity: electronAffinityFromFormula,
+  permittivity: curieWeissPermittivity,
   donors: (c) => (hasPretreatment(c) ? defectDonors(c) : undefined),
 };
 
@@ -317,6 +318,39 @@ function libraryValue(c: Resolution, p: ParameterRow, pv: PropertyValue): number
     c.ranges.set(p.sampledAs, [fromDisplay(p, pv.min), fromDisplay(p, pv.max)]);
   }
   return v;
+}
+
+/** Temperature at which a library static permittivity with a Curie–Weiss temperature is taken as measured, K. */
+export const CURIE_WEISS_REFERENCE_K = 300;
+/** Lowest temperature of the Curie–Weiss law for SrTiO3 (Neville, Hoeneisen & Mead 1972: satisfied from 60 K up), K */
+export const CURIE_WEISS_MIN_K = 60;
+
+/**
+ * A paraelectric support's static permittivity at the contact temperature: the library value (at 300 K) carried by
+ * the Curie–Weiss law eps(T) = C / (T - T0), i.e. eps(T) = eps(300 K) (300 K - T0) / (T - T0), with T0 from the
+ * library (SrTiO3: 30 K, Neville, Hoeneisen & Mead, J. Appl. Phys. 43, 2124 (1972)); held at its 60 K value below
+ * 60 K, where SrTiO3 turns quantum paraelectric and the law no longer holds. Its published range is carried the same
+ * way for --uncertainty. Undefined (the library value as is) for supports without a Curie–Weiss temperature.
+ */
+function curieWeissPermittivity(c: Resolution): number | undefined {
+  const s = c.records.support;
+  const t0 = s?.curieWeissTemperature_K;
+  const eps = s?.staticPermittivity;
+  if (s === undefined || t0 === undefined || eps === undefined || !(t0.value < CURIE_WEISS_REFERENCE_K)) return undefined;
+  const t = Math.max(c.num('temperature')!, CURIE_WEISS_MIN_K);
+  const scale = (CURIE_WEISS_REFERENCE_K - t0.value) / (t - t0.value);
+  c.inputs.push(provenanceOf(c.lib, 'static permittivity at 300 K', eps, ''));
+  c.inputs.push(provenanceOf(c.lib, 'Curie-Weiss temperature', t0, 'K'));
+  const held = c.num('temperature')! < CURIE_WEISS_MIN_K ? `; below ${CURIE_WEISS_MIN_K} K held at its ${CURIE_WEISS_MIN_K} K value (quantum paraelectric: the law fails)` : '';
+  c.inputs.push({
+    field: 'static permittivity',
+    value: eps.value * scale,
+    unit: '',
+    origin: 'derived',
+    note: `Curie-Weiss: eps(T) = eps(300 K) (300 K - T0) / (T - T0), T0 = ${t0.value} K${held}`,
+  });
+  if (eps.min !== undefined && eps.max !== undefined && eps.max > eps.min) c.ranges.set('permittivity', [eps.min * scale, eps.max * scale]);
+  return eps.value * scale;
 }
 
 function electronAffinityFromFormula(c: Resolution): number | undefined {

@@ -100,6 +100,11 @@ export interface SupportRecord {
    * permittivity falls with field (SrTiO3); absent = a linear dielectric
    */
   permittivityNonlinearity_V_m5_per_C3?: PropertyValue;
+  /**
+   * Curie–Weiss temperature T0 of a paraelectric support, K: the static permittivity (taken as measured at
+   * CURIE_WEISS_REFERENCE_K = 300 K) follows eps(T) = eps(300 K) (300 K - T0) / (T - T0) at other temperatures
+   */
+  curieWeissTemperature_K?: PropertyValue;
   /** density of sites that can hold a localised (small-polaron, reduced-cation) electron, per cm^3 */
   localisedSiteDensity_cm3?: PropertyValue;
   /** depth of the localised (small-polaron) level below the conduction-band edge E_C, eV (positive) */
