@@ -195,11 +195,11 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
     bandBending_eV = aligned === null ? barrier.electronBarrier_eV - bulk.fermiLevelBelowConduction_eV : aligned.bandBending_eV;
     solution = solved.at(bandBending_eV) ?? solveAt(bandBending_eV);
   }
-  const physics = derivePhysics({ r, model, bulk, barrier, nType, bandBending_eV, geometry, solution, interfaceStates }, planarCharge);
+  const physics = derivePhysics({ r, model, bulk, barrier, nType, bandBending_eV, geometry, solution, interfaceStates, dielectric }, planarCharge);
   return toContactResult(physics, evaluateWarnings(warningFacts(physics)));
 }
 
-type SolvedContact = Pick<ContactPhysics, 'r' | 'model' | 'bulk' | 'barrier' | 'nType' | 'bandBending_eV' | 'geometry' | 'solution' | 'interfaceStates'>;
+type SolvedContact = Pick<ContactPhysics, 'r' | 'model' | 'bulk' | 'barrier' | 'nType' | 'bandBending_eV' | 'geometry' | 'solution' | 'interfaceStates' | 'dielectric'>;
 
 /** Every derived quantity of one solved contact, SI; `planarCharge` is the planar Q(V) at the contact's temperature. */
 function derivePhysics(c: SolvedContact, planarCharge: ChargeOfBending): ContactPhysics {
@@ -220,7 +220,7 @@ function derivePhysics(c: SolvedContact, planarCharge: ChargeOfBending): Contact
     kT_eV: kT,
     spaceCharge_C_per_m2: spaceCharge,
     interfaceField_V_per_m: field_V_per_m,
-    interfacePermittivity: differentialPermittivity(supportDielectric(s), clamp(field_V_per_m, 1e11)),
+    interfacePermittivity: differentialPermittivity(c.dielectric, clamp(field_V_per_m, 1e11)),
     electronsPerParticle: electronsPerParticle(partnerCharge_C, geometry),
     chargeEquivalentWidth_m: chargeEquivalentWidth_m({ ...dopants, charge_C: solution.totalCharge_C, geometry }),
     depletionWidthApprox_m: depletionWidthApprox_m(depletion),
@@ -336,7 +336,7 @@ function historyRelaxation(c: SolvedContact, barrier_eV: number, massRatio: numb
     const bulk = solveBulkNeutrality(model);
     const bending_eV = c.barrier.electronBarrier_eV - bulk.fermiLevelBelowConduction_eV;
     const j0 = thermionicExchangeCurrent_A_per_m2({ massRatio, temperature_K: t, barrier_eV });
-    const charge = planarChargeOfBending(model, bulk.reducedFermiLevel, c.r.support.permittivity, t, supportDielectric(c.r.support));
+    const charge = planarChargeOfBending(model, bulk.reducedFermiLevel, c.r.support.permittivity, t, c.dielectric);
     const time = relaxationAt(charge, bending_eV, t, j0.log10Current_A_per_m2, slope(model.kT_eV));
     return { temperature_K: t, time };
   } catch {
@@ -395,7 +395,7 @@ function warningFacts(p: ContactPhysics): WarningFacts {
     interfaceField_V_per_m: p.interfaceField_V_per_m,
     interfaceLayer: p.interfaceStates === null ? null : { spaceCharge_C_per_m2: p.spaceCharge_C_per_m2, layerThickness_m: p.interfaceStates.layerThickness_m, layerPermittivity: p.interfaceStates.layerPermittivity },
     staticPermittivity: r.support.permittivity,
-    permittivityFieldDependent: !isLinear(supportDielectric(r.support)),
+    permittivityFieldDependent: !isLinear(p.dielectric),
     fieldPermittivity: p.interfaceField_V_per_m !== 0 && r.support.permittivity > 50 ? devonshirePermittivity(clamp(p.interfaceField_V_per_m, 1e11), Math.min(r.support.permittivity, 1e5), SRTIO3_LIKE_BETA) : null,
     imageForceMaximum_m: p.imageForce.maximumDistance_m,
     imageForceValid: p.imageForce.valid,

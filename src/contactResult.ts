@@ -10,7 +10,7 @@ import type { CrossSection } from './electrostatics/geometry.js';
 import type { PoissonSolution } from './electrostatics/poisson.js';
 import type { ParticleAtomCount, ChargingSummary } from './derived/particle.js';
 import type { EquilibrationTime, RelaxationTime, ThermionicExchange } from './derived/exchange.js';
-import type { ImageForceCheck } from './electrostatics/permittivity.js';
+import type { DielectricLaw, ImageForceCheck } from './electrostatics/permittivity.js';
 import type { ResolvedContact } from './inputs/contactInput.js';
 import { contactCautions } from './output/cautions.js';
 import type { ContactResult, ExchangeInfo, FlowDirection, InterfaceStatesInfo, ParticleInfo, PhotoemissionInfo, Profile, Warning } from './types.js';
@@ -42,6 +42,8 @@ export interface ContactPhysics {
   solution: PoissonSolution;
   spaceCharge_C_per_m2: number;
   interfaceField_V_per_m: number;
+  /** the support's dielectric law used in the solve (linear, or field-dependent) */
+  dielectric: DielectricLaw;
   /** (1/eps0) dD/dE of the support at the interface field (the static permittivity for a linear dielectric) */
   interfacePermittivity: number;
   electronsPerParticle: number;

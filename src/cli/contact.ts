@@ -3,7 +3,7 @@ import type { Command } from 'commander';
 import { Option } from './commander.js';
 import { InputError } from '../errors.js';
 import { createFolder } from '../inputs/files.js';
-import type { ContactOptions } from '../inputs/parameters.js';
+import { isArrayGeometry, type ContactOptions } from '../inputs/parameters.js';
 import { addContactFlags, contactOptionsFrom } from './options.js';
 import { FIT_USES, noteFitInputs, optionsFromFit, readFitFile, type FitUse } from './fitInput.js';
 import { writeJson, notice, writeToFd, STDOUT_FD } from './io.js';
@@ -46,7 +46,7 @@ async function runContact(opts: Record<string, unknown>): Promise<void> {
     await prepareReportDir(dir, opts['force'] === true);
     const title = `${result.metal} on ${result.support}`;
     // particle arrays: how the charge per particle depends on loading belongs in the write-up
-    const extraSections = result.geometry === 'array' || result.geometry === 'disc-array' ? [await densitySweepSection(dir, sweepParticleDensity(options), title)] : [];
+    const extraSections = isArrayGeometry(result.geometry) ? [await densitySweepSection(dir, sweepParticleDensity(options), title)] : [];
     const paths = await writeContactReport(dir, result, { title, force: true, extraSections });
     if (opts['json'] !== true) notice(`report written: ${paths.htmlPath}`);
   }

@@ -115,9 +115,10 @@ export function discArray(radius_m: number, particleDensity_m2: number): CrossSe
     const s = t / (1 + t);
     return s < 1e-12 ? discArea : discArea * Math.exp(s * Math.log(footprint / discArea));
   };
+  const lone = disc(a);
   const volume = (ca: number, cb: number): number => {
-    // inside the cylinder: the disc's factored form (no cancellation for thin cells); beyond, the closed form
-    if (a2 + cb * cb <= R2) return ((2 * Math.PI) / 3) * (cb - ca) * (a2 + ca * ca + ca * cb + cb * cb);
+    // inside the cylinder: the isolated disc's volumes (factored, no cancellation for thin cells); beyond, the closed form
+    if (a2 + cb * cb <= R2) return lone.volume(ca, cb);
     return Math.max(0, enclosed(cb) - enclosed(ca));
   };
   return {

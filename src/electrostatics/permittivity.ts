@@ -113,6 +113,25 @@ export function fieldEnergyDensity(law: DielectricLaw, field_V_per_m: number): n
 }
 
 /**
+ * The root E in [lo, hi] of an increasing g(E) = target, given g's slope: Newton safeguarded by bisection (a step
+ * that leaves the shrinking bracket is replaced by its midpoint), to 1e-14 relative. Shared by the two inverses below.
+ */
+function increasingRoot(g: (e: number) => number, slope: (e: number) => number, target: number, lo: number, hi: number): number {
+  let e = lo;
+  for (let k = 0; k < 200; k++) {
+    const f = g(e) - target;
+    if (f > 0) hi = e;
+    else lo = e;
+    const s = slope(e);
+    let next = s > 0 ? e - f / s : 0.5 * (lo + hi);
+    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    if (Math.abs(next - e) <= 1e-14 * next || hi - lo <= 1e-14 * hi) return next;
+    e = next;
+  }
+  return e;
+}
+
+/**
  * Inverse of fieldEnergyDensity: the field E >= 0 with W(E) = energy (J/m^3, >= 0). W is increasing and convex in
  * E with eps0 eps_b E^2/2 <= W <= eps0 eps_r(0) E^2/2, which brackets the root; Newton (dW/dE = E dD/dE) safeguarded
  * by bisection, to 1e-14 relative. Linear law: sqrt(2 W / (eps0 eps_r(0))).
@@ -120,22 +139,10 @@ export function fieldEnergyDensity(law: DielectricLaw, field_V_per_m: number): n
 export function fieldOfEnergyDensity(law: DielectricLaw, energy_J_per_m3: number): number {
   const w = Math.max(0, energy_J_per_m3);
   if (w === 0) return 0;
-  const low0 = Math.sqrt((2 * w) / (EPS0_F_PER_M * law.staticPermittivity));
-  if (isLinear(law)) return low0;
-  let lo = low0;
-  let hi = Math.sqrt((2 * w) / (EPS0_F_PER_M * law.backgroundPermittivity));
-  let e = lo;
-  for (let k = 0; k < 200; k++) {
-    const f = fieldEnergyDensity(law, e) - w;
-    if (f > 0) hi = e;
-    else lo = e;
-    const slope = e * EPS0_F_PER_M * differentialPermittivity(law, e);
-    let next = slope > 0 ? e - f / slope : 0.5 * (lo + hi);
-    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
-    if (Math.abs(next - e) <= 1e-14 * next || hi - lo <= 1e-14 * hi) return next;
-    e = next;
-  }
-  return e;
+  const low = Math.sqrt((2 * w) / (EPS0_F_PER_M * law.staticPermittivity));
+  if (isLinear(law)) return low;
+  const high = Math.sqrt((2 * w) / (EPS0_F_PER_M * law.backgroundPermittivity));
+  return increasingRoot((e) => fieldEnergyDensity(law, e), (e) => e * EPS0_F_PER_M * differentialPermittivity(law, e), w, low, high);
 }
 
 /**
@@ -147,20 +154,9 @@ export function fieldOfDisplacement(law: DielectricLaw, displacement_C_per_m2: n
   const sign = displacement_C_per_m2 < 0 ? -1 : 1;
   if (d === 0) return 0;
   if (isLinear(law)) return (sign * d) / (EPS0_F_PER_M * law.staticPermittivity);
-  let lo = d / (EPS0_F_PER_M * law.staticPermittivity);
-  let hi = d / (EPS0_F_PER_M * law.backgroundPermittivity);
-  let e = lo;
-  for (let k = 0; k < 200; k++) {
-    const f = displacementOfField(law, e) - d;
-    if (f > 0) hi = e;
-    else lo = e;
-    const slope = EPS0_F_PER_M * differentialPermittivity(law, e);
-    let next = e - f / slope;
-    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
-    if (Math.abs(next - e) <= 1e-14 * next || hi - lo <= 1e-14 * hi) return sign * next;
-    e = next;
-  }
-  return sign * e;
+  const low = d / (EPS0_F_PER_M * law.staticPermittivity);
+  const high = d / (EPS0_F_PER_M * law.backgroundPermittivity);
+  return sign * increasingRoot((e) => displacementOfField(law, e), (e) => EPS0_F_PER_M * differentialPermittivity(law, e), d, low, high);
 }
 
 export interface ImageForceCheck {

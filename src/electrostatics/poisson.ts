@@ -432,10 +432,10 @@ function screenedTail(model: ChargeModel, xiBulk: number, beta: number, residue:
         out[1] = k + spreading;
         return;
       }
-      if (dielectric !== null && dielectric.slopeOfEnergy(g2) > 0) {
-        // field-dependent dielectric: the planar first integral W(E) = kT G gives the field s_E, and the flux is
-        // phi(s_E); d phi/du = beta N / s_E (dW = E dD), the linear formula with the actual field
-        const field = dielectric.slopeOfEnergy(g2);
+      // field-dependent dielectric: the planar first integral W(E) = kT G gives the field s_E, and the flux is
+      // phi(s_E); d phi/du = beta N / s_E (dW = E dD), the linear formula with the actual field
+      const field = dielectric === null ? 0 : dielectric.slopeOfEnergy(g2);
+      if (dielectric !== null && field > 0) {
         dielectric.at(field, out);
         out[0] = Math.sign(u) * out[0]! + spreading * u;
         out[1] = (beta * Math.abs(n)) / field + spreading;

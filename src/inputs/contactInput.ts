@@ -22,6 +22,7 @@ import {
   hasPretreatment,
   hasReactionGas,
   hasReductionGas,
+  isArrayGeometry,
   row,
   toDisplay,
   type ContactOptions,
@@ -216,7 +217,7 @@ const CROSS_RULES: { option: OptionName; refuse: (o: ContactOptions, c: Resoluti
   },
   {
     option: 'particleDensity',
-    refuse: (o, c) => (c.value('geometry') === 'array' || c.value('geometry') === 'disc-array') && o.particleDensity === undefined,
+    refuse: (o, c) => isArrayGeometry(c.value('geometry')) && o.particleDensity === undefined,
     message: 'the array geometries need a particle density',
     allowed: `${row('particleDensity').limits!.map((v) => toDisplay(row('particleDensity'), v)).join(' to ')} cm^-2`,
   },

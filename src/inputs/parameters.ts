@@ -159,6 +159,11 @@ export interface LibraryRecords {
 }
 
 /** What a row's `when`, `library` and `fallback` may read: the rows above it, and what the user gave. */
+/** Geometries that are one particle's cell of an array: they need --particle-density. */
+export function isArrayGeometry(geometry: unknown): boolean {
+  return geometry === 'array' || geometry === 'disc-array';
+}
+
 export interface RowContext {
   readonly records: LibraryRecords;
   /** resolved value of a row above (SI number, or the chosen name) */
@@ -519,7 +524,7 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
   },
   particleDensity: {
     flag: '--particle-density <N>', help: 'particles per area (cm^-2 if bare)', kind: 'quantity', quantity: 'arealDensity', limits: [1e10, 1e19],
-    label: 'particle density', when: { test: (c) => c.value('geometry') === 'array' || c.value('geometry') === 'disc-array', text: 'with --geometry array or disc-array' },
+    label: 'particle density', when: { test: (c) => isArrayGeometry(c.value('geometry')), text: 'with --geometry array or disc-array' },
   },
   supportThickness: {
     flag: '--support-thickness <L>', help: 'support grain thickness (nm if bare)', defaultText: 'semi-infinite',
