@@ -205,4 +205,24 @@ describe('bandbend validate: text, report, bad input', () => {
     expect(r.code, show(r)).toBe(2);
     expect(r.stdout).toBe('');
   });
+
+  it('--scatter N adds 5-95% bands to every compared row and their statistics; bad counts and a lone --seed are refused', () => {
+    const r = bandbend(['validate', '--model', 'default', '--scatter', '3', '--seed', '9', '--json']);
+    expect(r.code, show(r)).toBe(0);
+    expect(r.stderr).toBe(''); // no progress bar in a pipe
+    const out = JSON.parse(r.stdout) as { models: { statistics: { scatter?: { samples: number; seed: number; barrierRows: number } }; rows: Row[] }[] };
+    const m = out.models[0]!;
+    expect(m.statistics.scatter).toMatchObject({ samples: 3, seed: 9 });
+    const compared = m.rows.filter((row) => row.status === 'ok');
+    expect(compared.every((row) => row.scatter !== undefined || row.scatterFailure !== undefined)).toBe(true);
+    expect(m.statistics.scatter!.barrierRows).toBe(compared.filter((row) => row.kind === 'barrier' && row.scatter).length);
+    const text = bandbend(['validate', '--model', 'ideal', '--scatter', '2']);
+    expect(text.code, show(text)).toBe(0);
+    expect(text.stdout).toContain('scatter: barrier measured inside 5-95% band');
+    expectBadInput(bandbend(['validate', '--scatter', '1.5']), '--scatter');
+    expectBadInput(bandbend(['validate', '--scatter', 'many']), '--scatter');
+    expectBadInput(bandbend(['validate', '--scatter', '100000']), '--scatter');
+    expectBadInput(bandbend(['validate', '--seed', '3']), '--seed');
+    expectBadInput(bandbend(['validate', '--scatter', '2', '--seed', '-1']), '--seed');
+  });
 });

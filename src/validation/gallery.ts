@@ -6,6 +6,7 @@ import { join } from 'node:path';
 import { z } from 'zod';
 import { solveContact } from '../contact.js';
 import { materialsSchemas, type CslItemEntry } from '../materials/schema.js';
+import { isModelFailure } from '../errors.js';
 import type { ContactResult, BarrierModel } from '../types.js';
 import {
   bandBendingProfile,
@@ -16,6 +17,15 @@ import {
 } from '../derived/photoemission.js';
 import { SupportStateSchema, supportStateInputs, unmappedState, usesReductionData, type SupportStateInputs, type SupportStateMapping } from './supportState.js';
 import { loadBuiltinLibrary } from '../materials/load.js';
+import {
+  fractionInsideBand,
+  fractionMagnitudeReached,
+  fractionSignReached,
+  meanBandWidth,
+  rowScatter,
+  type RowScatter,
+  type ScatterRequest,
+} from './scatter.js';
 import type { MaterialsLibrary } from '../materials/types.js';
 
 // ------------------------------------------------------------------------------------------ schemas
@@ -330,6 +340,10 @@ export interface ValidationRow {
   reason?: string;
   /** how the measurement's support state reached the model (absent: not compared) */
   supportState?: { mapping: SupportStateMapping; inputs: Record<string, unknown>; note: string };
+  /** the band of the prediction under the inputs' published scatter (only when asked for: ValidationOptions.scatter) */
+  scatter?: RowScatter;
+  /** why the scatter band could not be computed (every sample failed) */
+  scatterFailure?: string;
 }
 
 export interface BarrierStatistics {
@@ -362,8 +376,32 @@ export interface BandBendingStatistics {
   failed: number;
 }
 
+/**
+ * How many measurements the model reaches within the published scatter of its inputs (src/validation/scatter.ts):
+ * a measured value inside the row's 5-95% band, a measured charge sign that at least 5% of the samples give, a
+ * measured magnitude range that meets the band of |N|.
+ */
+export interface ScatterStatistics {
+  samples: number;
+  seed: number;
+  barrierRows: number;
+  barrierInsideBand: number | null;
+  /** mean width of the barrier bands, eV */
+  barrierMeanBandWidth_eV: number | null;
+  chargeSignRows: number;
+  chargeSignReached: number | null;
+  magnitudeRows: number;
+  magnitudeReached: number | null;
+  bandBendingRows: number;
+  bandBendingInsideBand: number | null;
+  /** rows whose every sample failed (no band) */
+  failedRows: number;
+}
+
 export interface ValidationStatistics {
   model: GalleryModel;
+  /** present when the scatter bands were computed */
+  scatter?: ScatterStatistics;
   /** compared rows by how their support state reached the model (supportState.ts) */
   supportStates?: Partial<Record<SupportStateMapping, number>>;
   barrier: BarrierStatistics;
@@ -389,6 +427,10 @@ export interface ValidationOptions {
   includeUnverified?: boolean;
   /** pass each row's support state (stated donors, pretreatment) to the model (default true); false: library defaults for all */
   supportState?: boolean;
+  /** also sample each compared row within its inputs' published ranges (uses the library solver, not `solve`) */
+  scatter?: ScatterRequest;
+  /** called after each row (progress) */
+  onRow?: () => void;
 }
 
 function tryNumber(f: () => number): { value: number } | { error: string } {
@@ -437,14 +479,34 @@ function stateFor(source: AnyRow, usesState: boolean, lib: MaterialsLibrary): Su
   return unmappedState(key, 'no reduction data in the library');
 }
 
-/** Predict one row with its support state (stateFor); an excluded row is not solved. */
-function compareRow(row: ValidationRow, source: AnyRow, state: SupportStateInputs, predict: (state: SupportStateInputs) => number): ValidationRow {
+/** How one row is predicted: its contact options for a support state, and the number it reads off the result. */
+interface RowPrediction {
+  options: (state: SupportStateInputs) => Record<string, unknown>;
+  observe: (result: ContactResult) => number;
+  /** charge rows: the direction of a sampled value, for the scatter's sign probabilities */
+  signOf?: (value: number) => Exclude<ChargeSign, 'mixed'>;
+}
+
+/**
+ * Predict one row with its support state (stateFor); an excluded row is not solved. With a scatter request the row is
+ * also sampled within its inputs' published ranges (a row whose every sample fails records why and keeps its
+ * prediction).
+ */
+function compareRow(row: ValidationRow, source: AnyRow, state: SupportStateInputs, how: RowPrediction, solve: SolveFunction, scatter?: ScatterRequest): ValidationRow {
   const why = excludedReason(source);
   if (why) return Object.assign(row, { status: 'excluded', reason: why });
-  const p = tryNumber(() => predict(state));
+  const p = tryNumber(() => how.observe(asResult(solve(how.options(state)))));
   row.supportState = { mapping: state.mapping, inputs: state.options, note: state.note };
-  if ('value' in p) row.predicted = p.value;
-  else Object.assign(row, { status: 'failed', reason: p.error });
+  if (!('value' in p)) return Object.assign(row, { status: 'failed', reason: p.error });
+  row.predicted = p.value;
+  if (scatter) {
+    try {
+      row.scatter = rowScatter(how.options(state), how.observe, { ...scatter, id: row.id }, how.signOf);
+    } catch (e) {
+      if (!isModelFailure(e)) throw e;
+      row.scatterFailure = e.message;
+    }
+  }
   return row;
 }
 
@@ -469,24 +531,31 @@ export function runValidation(options: ValidationOptions = {}): ValidationResult
   const lib = loadBuiltinLibrary();
   const rows: ValidationRow[] = [];
 
+  const compare = (row: ValidationRow, r: AnyRow, how: RowPrediction): void => {
+    rows.push(compareRow(row, r, stateFor(r, usesState, lib), how, solve, options.scatter));
+    options.onRow?.();
+  };
   for (const r of gallery.barriers.filter(keep)) {
     const row = { ...rowHead('barrier', r), measured: r.value, ...(r.quantity === 'holeBarrier_eV' ? { quantity: r.quantity } : {}) };
-    rows.push(compareRow(row, r, stateFor(r, usesState, lib), (st) => predictedBarrier_eV(asResult(solve(barrierOptions(r, model, st))), r.quantity, r.technique)));
+    compare(row, r, { options: (st) => barrierOptions(r, model, st), observe: (res) => predictedBarrier_eV(res, r.quantity, r.technique) });
   }
   for (const r of gallery.charges.filter(keep)) {
     const row = { ...rowHead('charge', r), measured: r.value, measuredSign: r.sign, measuredRange: r.magnitudeRange };
-    rows.push(compareRow(row, r, stateFor(r, usesState, lib), (st) => asResult(solve(chargeOptions(r, model, st))).electronsPerParticle));
+    compare(row, r, { options: (st) => chargeOptions(r, model, st), observe: (res) => res.electronsPerParticle, signOf });
   }
   for (const r of gallery.bandBending.filter(keep)) {
     const row = { ...rowHead('bandBending', r), measured: measuredFinalBandBending_eV(r) };
-    rows.push(
-      compareRow(row, r, stateFor(r, usesState, lib), (st) => {
-        const { x_m, bandBending_eV } = bandBendingProfile(asResult(solve(bandBendingOptions(r, model, st))));
+    compare(row, r, {
+      options: (st) => bandBendingOptions(r, model, st),
+      observe: (res) => {
+        const { x_m, bandBending_eV } = bandBendingProfile(res);
         return observedBandBending_eV(x_m, bandBending_eV, rowImfp_m(r), r.emissionAngle_deg);
-      }),
-    );
+      },
+    });
   }
-  return { rows, statistics: summarise(rows, model.barrierModel) };
+  const statistics = summarise(rows, model.barrierModel);
+  if (options.scatter) statistics.scatter = summariseScatter(rows, options.scatter);
+  return { rows, statistics };
 }
 
 /** Statistics of a set of compared rows (pure). */
@@ -541,6 +610,37 @@ export function summarise(rows: readonly ValidationRow[], model: GalleryModel): 
       meanAbsoluteError_eV: meanAbsoluteError(bbRows.map((r) => ({ predicted: r.predicted!, measured: r.measured! }))),
       failed: failed('bandBending'),
     },
+  };
+}
+
+/** Scatter statistics of compared rows that carry a band (pure). */
+export function summariseScatter(rows: readonly ValidationRow[], request: ScatterRequest): ScatterStatistics {
+  const banded = (kind: ValidationRow['kind']) =>
+    rows.filter((r): r is ValidationRow & { scatter: RowScatter } => r.kind === kind && r.status === 'ok' && r.scatter !== undefined);
+  const withMeasured = (kind: ValidationRow['kind']) =>
+    banded(kind)
+      .filter((r) => r.measured !== null)
+      .map((r) => ({ measured: r.measured!, p05: r.scatter.p05, p95: r.scatter.p95 }));
+  const barriers = withMeasured('barrier');
+  const charges = banded('charge');
+  const signs = charges
+    .filter((r) => r.measuredSign !== undefined && r.measuredSign !== 'mixed' && r.scatter.signProbability !== undefined)
+    .map((r) => ({ probability: r.scatter.signProbability![r.measuredSign as Exclude<ChargeSign, 'mixed'>] }));
+  const magnitudes = charges.filter((r) => r.measuredRange).map((r) => ({ range: r.measuredRange!, p05: r.scatter.p05, p95: r.scatter.p95 }));
+  const bending = withMeasured('bandBending');
+  return {
+    samples: request.samples,
+    seed: request.seed,
+    barrierRows: barriers.length,
+    barrierInsideBand: fractionInsideBand(barriers),
+    barrierMeanBandWidth_eV: meanBandWidth(barriers),
+    chargeSignRows: signs.length,
+    chargeSignReached: fractionSignReached(signs),
+    magnitudeRows: magnitudes.length,
+    magnitudeReached: fractionMagnitudeReached(magnitudes),
+    bandBendingRows: bending.length,
+    bandBendingInsideBand: fractionInsideBand(bending),
+    failedRows: rows.filter((r) => r.scatterFailure !== undefined).length,
   };
 }
 

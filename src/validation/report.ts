@@ -25,15 +25,23 @@ function measuredText(r: ValidationRow): string {
 
 const UNIT: Record<ValidationRow['kind'], string> = { barrier: 'eV', charge: 'e/particle', bandBending: 'eV' };
 
-/** Plain-text table of the rows (one line each) followed by the statistics. */
+/** The row's 5-95% scatter band as text ('-' without one). */
+function bandText(r: ValidationRow): string {
+  if (r.scatter) return `${formatNumber(r.scatter.p05)} to ${formatNumber(r.scatter.p95)}`;
+  return r.scatterFailure ? 'failed' : '-';
+}
+
+/** Plain-text table of the rows (one line each) followed by the statistics; a band column when bands were computed. */
 export function validationTable(result: ValidationResult): string {
-  const head = ['kind', 'id', 'metal/support', 'measured', 'predicted', 'unit', 'verified', 'support state', 'status'];
+  const banded = result.statistics.scatter !== undefined;
+  const head = ['kind', 'id', 'metal/support', 'measured', 'predicted', ...(banded ? ['5-95% band'] : []), 'unit', 'verified', 'support state', 'status'];
   const lines = result.rows.map((r) => [
     r.kind,
     r.id,
     `${r.metal} | ${r.support}`,
     measuredText(r),
     r.predicted === null ? '-' : formatNumber(r.predicted),
+    ...(banded ? [bandText(r)] : []),
     UNIT[r.kind],
     r.verified ? 'yes' : 'no (memory)',
     r.supportState?.mapping ?? '-',
@@ -61,21 +69,46 @@ export function statisticsText(s: ValidationStatistics): string {
     `particle charge: sign agrees for ${pct(c.signAgreement)} of ${c.signRows} rows; within a factor of 3 of the measured magnitude for ` +
       `${pct(c.withinFactor3)} of ${c.magnitudeRows} rows (${c.failed} failed)`,
     `band bending seen by photoemission: mean absolute error ${formatNumber(s.bandBending.meanAbsoluteError_eV)} eV over ${s.bandBending.rows} rows (${s.bandBending.failed} failed)`,
+    ...(s.scatter ? [scatterText(s.scatter)] : []),
   ].join('\n');
+}
+
+/** What the scatter bands reach, in one paragraph. */
+function scatterText(x: NonNullable<ValidationStatistics['scatter']>): string {
+  return (
+    `within the published scatter of the inputs (${x.samples} samples per row, seed ${x.seed}; band = 5th to 95th percentile): ` +
+    `${pct(x.barrierInsideBand)} of ${x.barrierRows} measured barriers inside the band (mean width ${formatNumber(x.barrierMeanBandWidth_eV)} eV); ` +
+    `measured charge sign reached by at least 5% of the samples for ${pct(x.chargeSignReached)} of ${x.chargeSignRows} rows; ` +
+    `magnitude range met for ${pct(x.magnitudeReached)} of ${x.magnitudeRows}; band bending inside the band for ${pct(x.bandBendingInsideBand)} of ${x.bandBendingRows}` +
+    (x.failedRows > 0 ? `; ${x.failedRows} rows without a band (every sample failed)` : '')
+  );
 }
 
 /** Predicted vs measured for the rows with a number on both sides, one panel-free scatter with the y = x line. */
 export function predictedVsMeasuredSpec(result: ValidationResult, kind: 'barrier' | 'bandBending' = 'barrier'): TopLevelSpec {
   const values = result.rows
     .filter((r) => r.kind === kind && r.status === 'ok' && r.predicted !== null && r.measured !== null)
-    .map((r) => ({ id: r.id, oxide: r.supportKey ?? r.support, pair: `${r.metal} | ${r.support}`, measured: r.measured!, predicted: r.predicted!, verified: r.verified ? 'seen' : 'from memory', method: r.method }));
-  const all = values.flatMap((v) => [v.measured, v.predicted]);
+    .map((r) => ({
+      id: r.id,
+      oxide: r.supportKey ?? r.support,
+      pair: `${r.metal} | ${r.support}`,
+      measured: r.measured!,
+      predicted: r.predicted!,
+      verified: r.verified ? 'seen' : 'from memory',
+      method: r.method,
+      ...(r.scatter ? { p05: r.scatter.p05, p95: r.scatter.p95 } : {}),
+    }));
+  const bands = values.filter((v) => v.p05 !== undefined);
+  const all = values.flatMap((v) => [v.measured, v.predicted, ...(v.p05 !== undefined ? [v.p05, v.p95!] : [])]);
   const lo = all.length ? Math.min(0, ...all) : 0;
   const hi = all.length ? Math.max(...all) * 1.05 : 1;
   const label = kind === 'barrier' ? 'barrier height (eV)' : 'band bending seen by photoemission (eV)';
   return {
     $schema: SCHEMA,
-    title: { text: kind === 'barrier' ? 'Barrier heights: predicted vs measured' : 'Band bending: predicted vs measured', subtitle: `model: ${result.statistics.model}; line: y = x` },
+    title: {
+      text: kind === 'barrier' ? 'Barrier heights: predicted vs measured' : 'Band bending: predicted vs measured',
+      subtitle: `model: ${result.statistics.model}; line: y = x${bands.length > 0 ? '; bars: 5-95% band under the published scatter of the inputs' : ''}`,
+    },
     config: BASE_CONFIG,
     width: 420,
     height: 420,
@@ -88,13 +121,27 @@ export function predictedVsMeasuredSpec(result: ValidationResult, kind: 'barrier
           y: { field: 'v', type: 'quantitative', scale: { domain: [lo, hi] }, title: `predicted ${label}` },
         },
       },
+      ...(bands.length > 0
+        ? [
+            {
+              data: { values: bands },
+              mark: { type: 'rule', strokeOpacity: 0.45, strokeWidth: 1.5 },
+              encoding: {
+                x: { field: 'measured', type: 'quantitative', scale: { domain: [lo, hi] } },
+                y: { field: 'p05', type: 'quantitative', scale: { domain: [lo, hi] } },
+                y2: { field: 'p95' },
+                color: { field: 'oxide', type: 'nominal', title: 'support', scale: { scheme: 'tableau20' } },
+              },
+            },
+          ]
+        : []),
       {
         data: { values },
         mark: { type: 'point', filled: true, size: 60 },
         encoding: {
           x: { field: 'measured', type: 'quantitative', scale: { domain: [lo, hi] } },
           y: { field: 'predicted', type: 'quantitative', scale: { domain: [lo, hi] } },
-          color: { field: 'oxide', type: 'nominal', title: 'support', scale: { scheme: 'tableau10' } },
+          color: { field: 'oxide', type: 'nominal', title: 'support', scale: { scheme: 'tableau20' } },
           shape: { field: 'verified', type: 'nominal', title: 'value', scale: { domain: ['seen', 'from memory'], range: ['circle', 'triangle'] } },
           tooltip: [
             { field: 'id', type: 'nominal' },
