@@ -22,7 +22,7 @@ export const DEMO_SAMPLE: ContactOptions = {
   metal: 'Pt',
   support: 'CeO2',
   temperature: '473 K',
-  geometry: 'array',
+  geometry: 'disc-array', // particles resting on their footprint, as on a real catalyst (not sunk into the support)
   particleDiameter: '2.5 nm',
   particleDensity: '5e11 cm^-2',
   reductionTemperature: '673 K',
@@ -34,7 +34,7 @@ export const DEMO_SAMPLE: ContactOptions = {
 export const DEMO_SCREEN = {
   metals: ['Pt', 'Pd', 'Ni', 'Cu', 'Ru', 'Au'],
   supports: ['TiO2-anatase', 'CeO2', 'ZnO', 'SnO2', 'In2O3'],
-  conditions: { temperature: '473 K', geometry: 'hemisphere', particleDiameter: '2.5 nm', donors: '1e18 cm^-3' } as ContactOptions,
+  conditions: { temperature: '473 K', geometry: 'disc', particleDiameter: '2.5 nm', donors: '1e18 cm^-3' } as ContactOptions,
 };
 
 
@@ -62,7 +62,7 @@ export async function runDemo(options: DemoOptions): Promise<{ summary: string; 
   );
   writeFileSync(join(outDir, 'screen.csv'), screenCsv(screenRows));
   await writeScreenFolder(join(outDir, 'screen'), screenRows, {
-    title: 'Kestrel team screen: metals x reduced supports, 2.5 nm hemispheres at 473 K, 1e18 cm^-3 donors',
+    title: 'Kestrel team screen: metals x reduced supports, 2.5 nm particles resting on the support (disc contact) at 473 K, 1e18 cm^-3 donors',
     metals: DEMO_SCREEN.metals,
     supports: DEMO_SCREEN.supports,
     sortBy: 'electronsPerParticle',

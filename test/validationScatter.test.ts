@@ -11,7 +11,7 @@
 //   e.g. Cramér, Mathematical Methods of Statistics, 1946, sec. 28.5, from memory, verify), which sets the tolerance;
 // - the definitions of the statistics in validation/README.md, recomputed here on constructed rows.
 import { describe, expect, it } from 'vitest';
-import { resolveContact } from '../src/inputs/contactInput.js';
+import { resolveContact, type ContactOptions } from '../src/inputs/contactInput.js';
 import { samplingRanges } from '../src/derived/uncertainty.js';
 import { runValidation, summariseScatter, type ValidationRow } from '../src/validation/gallery.js';
 import {
@@ -50,7 +50,7 @@ function differenceDensity(p: number, a: readonly [number, number], b: readonly 
 
 describe('the band of one row', () => {
   it('Schottky–Mott barrier: the band is the exact 5% and 95% quantiles of phi_m - chi (Pt on ZnO, library ranges)', () => {
-    const options = { metal: 'Pt', support: 'ZnO', barrierModel: 'ideal', geometry: 'planar', temperature: 300 };
+    const options: ContactOptions = { metal: 'Pt', support: 'ZnO', barrierModel: 'ideal', geometry: 'planar', temperature: 300 };
     const ranges = samplingRanges(resolveContact(options));
     const wf = ranges.get('workFunction_eV')!;
     const chi = ranges.get('electronAffinity_eV')!;

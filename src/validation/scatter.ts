@@ -56,7 +56,7 @@ export function rowSeed(seed: number, id: string): number {
  * Throws ConvergenceError when every sample fails; a failed sample is counted, never replaced.
  */
 export function rowScatter(
-  options: Record<string, unknown>,
+  options: Record<string, unknown> | ContactOptions,
   observe: (result: ContactResult) => number,
   request: ScatterRequest & { id: string },
   signOf?: (value: number) => 'to-metal' | 'to-support' | 'none',
