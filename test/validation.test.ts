@@ -20,7 +20,7 @@ import {
   type Baseline,
   type ValidationRow,
 } from '../src/validation/gallery.js';
-import { predictedVsMeasuredSpec, statisticsText, validationTable } from '../src/validation/report.js';
+import { chargeSpec, predictedVsMeasuredSpec, statisticsText, validationTable } from '../src/validation/report.js';
 
 describe('validation statistics on toy inputs (worked by hand)', () => {
   it('mean absolute error', () => {
@@ -129,6 +129,18 @@ describe('the gallery data', () => {
     expect(statisticsText(result.statistics)).toContain('model: ideal');
     const spec = predictedVsMeasuredSpec(result) as unknown as { layer: { data: { values: unknown[] } }[] };
     expect(spec.layer[1]!.data.values.length).toBe(result.statistics.barrier.rows);
+
+    // the charge figure: one marker per compared charge row, coloured by the same rule as the sign statistic
+    const charge = chargeSpec(result) as unknown as { layer: { mark: { type: string }; data: { values: { agrees?: string; rangeLo?: number; rangeHi?: number }[] } }[] };
+    const points = charge.layer.find((l) => l.mark.type === 'point')!.data.values;
+    expect(points.length).toBe(result.statistics.charge.rows);
+    const scored = points.filter((p) => p.agrees !== 'mixed (not scored)');
+    expect(scored.length).toBe(result.statistics.charge.signRows);
+    expect(scored.filter((p) => p.agrees === 'direction agrees').length / scored.length).toBeCloseTo(result.statistics.charge.signAgreement!, 12);
+    // measured magnitude bars sit on the measured side: to-support ranges are negative (electrons gained by the metal)
+    const bars = charge.layer.find((l) => l.mark.type === 'bar')!.data.values;
+    expect(bars.length).toBeGreaterThan(0);
+    for (const b of bars) expect(Math.sign(b.rangeLo!)).toBe(Math.sign(b.rangeHi!));
   });
 });
 

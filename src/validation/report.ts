@@ -6,7 +6,7 @@ import type { TopLevelSpec } from 'vega-lite';
 import { BASE_CONFIG, PALETTE } from '../output/figures.js';
 import { writeFigure } from '../output/render.js';
 import { formatNumber } from '../output/summary.js';
-import type { ValidationResult, ValidationRow, ValidationStatistics } from './gallery.js';
+import { signOf, type ValidationResult, type ValidationRow, type ValidationStatistics } from './gallery.js';
 
 const SCHEMA = 'https://vega.github.io/schema/vega-lite/v6.json';
 
@@ -156,13 +156,96 @@ export function predictedVsMeasuredSpec(result: ValidationResult, kind: 'barrier
   } as TopLevelSpec;
 }
 
+/**
+ * Particle charge, one line per compared charge row: the predicted electrons gained by the metal (x, symmetric-log
+ * scale), the measured direction as the marker's shape, green where the predicted direction agrees (a prediction
+ * below half an electron counts as none, as in the statistics), the measured magnitude range as a grey bar on the
+ * measured side, and the 5-95% scatter band as a line when computed.
+ */
+export function chargeSpec(result: ValidationResult): TopLevelSpec {
+  const rows = result.rows.filter((r) => r.kind === 'charge' && r.status === 'ok' && r.predicted !== null);
+  const values = rows.map((r) => {
+    const sign = r.measuredSign ?? 'mixed';
+    const agrees = sign === 'mixed' ? 'mixed (not scored)' : signOf(r.predicted!) === sign ? 'direction agrees' : 'direction differs';
+    const side = sign === 'to-support' ? -1 : 1;
+    return {
+      id: r.id,
+      pair: `${r.metal} | ${r.support}`,
+      method: r.method,
+      predicted: r.predicted!,
+      measuredSign: sign,
+      agrees,
+      ...(r.measuredRange && sign !== 'mixed' ? { rangeLo: side * r.measuredRange[0], rangeHi: side * r.measuredRange[1] } : {}),
+      ...(r.scatter ? { p05: r.scatter.p05, p95: r.scatter.p95 } : {}),
+    };
+  });
+  const ticks = [-300, -100, -30, -10, -3, -1, 0, 1, 3, 10, 30, 100, 300];
+  const x = {
+    type: 'quantitative' as const,
+    scale: { type: 'symlog' as const, constant: 1 },
+    axis: { values: ticks },
+    title: 'electrons gained by the metal per particle (symmetric log)',
+  };
+  const y = { field: 'id', type: 'nominal' as const, title: null, sort: null, axis: { labelLimit: 260 } };
+  return {
+    $schema: SCHEMA,
+    title: {
+      text: 'Particle charge: predicted, beside the measured direction',
+      subtitle: `model: ${result.statistics.model}; shape: measured direction; grey bar: measured magnitude${values.some((v) => v.p05 !== undefined) ? '; line: 5-95% scatter band' : ''}`,
+    },
+    config: BASE_CONFIG,
+    width: 360,
+    height: { step: 16 },
+    layer: [
+      { data: { values: [{ v: 0 }] }, mark: { type: 'rule', color: PALETTE.grey, strokeDash: [4, 3] }, encoding: { x: { field: 'v', ...x } } },
+      {
+        data: { values: values.filter((v) => v.rangeLo !== undefined) },
+        mark: { type: 'bar', color: '#cccccc', height: 10 },
+        encoding: { x: { field: 'rangeLo', ...x }, x2: { field: 'rangeHi' }, y },
+      },
+      {
+        data: { values: values.filter((v) => v.p05 !== undefined) },
+        mark: { type: 'rule', strokeWidth: 1.2, color: PALETTE.grey, strokeOpacity: 0.7 },
+        encoding: { x: { field: 'p05', ...x }, x2: { field: 'p95' }, y },
+      },
+      {
+        data: { values },
+        mark: { type: 'point', filled: true, size: 70 },
+        encoding: {
+          x: { field: 'predicted', ...x },
+          y,
+          shape: {
+            field: 'measuredSign',
+            type: 'nominal',
+            title: 'measured',
+            scale: { domain: ['to-metal', 'to-support', 'none', 'mixed'], range: ['triangle-right', 'triangle-left', 'circle', 'diamond'] },
+          },
+          color: {
+            field: 'agrees',
+            type: 'nominal',
+            title: 'prediction',
+            scale: { domain: ['direction agrees', 'direction differs', 'mixed (not scored)'], range: [PALETTE.green, PALETTE.red, PALETTE.grey] },
+          },
+          tooltip: [
+            { field: 'id', type: 'nominal' },
+            { field: 'pair', type: 'nominal' },
+            { field: 'method', type: 'nominal' },
+            { field: 'measuredSign', type: 'nominal' },
+            { field: 'predicted', type: 'quantitative', format: '.3g' },
+          ],
+        },
+      },
+    ],
+  } as TopLevelSpec;
+}
+
 export interface ValidationReportPaths {
   table: string;
   json: string;
   figures: string[];
 }
 
-/** Write validation.txt, validation.json and the predicted-vs-measured figures (barrier; band bending when compared) into dir. */
+/** Write validation.txt, validation.json and the predicted-vs-measured figures (barrier; charge and band bending when compared) into dir. */
 export async function writeValidationReport(dir: string, result: ValidationResult): Promise<ValidationReportPaths> {
   await mkdir(dir, { recursive: true });
   const table = join(dir, 'validation.txt');
@@ -172,6 +255,10 @@ export async function writeValidationReport(dir: string, result: ValidationResul
   const figures: string[] = [];
   const fig = await writeFigure(dir, 'barrier-predicted-vs-measured', predictedVsMeasuredSpec(result, 'barrier'));
   figures.push(fig.svgPath);
+  if (result.rows.some((r) => r.kind === 'charge' && r.status === 'ok')) {
+    const ch = await writeFigure(dir, 'charge-predicted-vs-measured', chargeSpec(result));
+    figures.push(ch.svgPath);
+  }
   if (result.rows.some((r) => r.kind === 'bandBending' && r.status === 'ok')) {
     const bb = await writeFigure(dir, 'band-bending-predicted-vs-measured', predictedVsMeasuredSpec(result, 'bandBending'));
     figures.push(bb.svgPath);
