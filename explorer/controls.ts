@@ -21,7 +21,7 @@ const GROUPS: readonly { title: string; open: boolean; options: readonly string[
   {
     title: 'Barrier and interface states',
     open: true,
-    options: ['barrierModel', 'pinningFactor', 'neutralLevel', 'barrier', 'neutralLevelAboveValence', 'interfaceStateDensity', 'interfaceLayerThickness', 'interfaceLayerPermittivity'],
+    options: ['barrierModel', 'pinningFactor', 'neutralLevel', 'barrier', 'neutralLevelAboveValence', 'interfaceStateDensity', 'interfaceLayerThickness', 'interfaceLayerPermittivity', 'surfaceDonors', 'surfaceDonorLevel'],
   },
   { title: 'Geometry', open: true, options: ['geometry', 'particleDiameter', 'particleDensity', 'supportThickness'] },
   { title: 'Statistics and numerics', open: false, options: ['statistics', 'refinement'] },

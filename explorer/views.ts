@@ -29,6 +29,7 @@ export const HEADLINE: readonly (readonly [string, string, string])[] = [
   ['Debye length', 'debyeLength_nm', 'nm'],
   ['interface field', 'interfaceField_V_per_m', 'V/m'],
   ['interface-state charge', 'interfaceStates.interfaceStateCharge_C_per_m2', 'C/m²'],
+  ['surface donors ionised', 'interfaceStates.surfaceDonorsIonisedFraction', ''],
   ['donor density', 'donorDensity_cm3', 'cm⁻³'],
   ['equilibration time (log10 s)', 'exchange.equilibrationTimeLog10_s', ''],
 ];

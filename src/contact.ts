@@ -91,8 +91,13 @@ export function interfaceParametersOf(r: ResolvedContact): InterfaceStateParamet
   const layerThickness_m = s.interfaceLayerThickness_m ?? DEFAULT_INTERFACE_LAYER_THICKNESS_M;
   const layerPermittivity = s.interfaceLayerPermittivity ?? DEFAULT_INTERFACE_LAYER_PERMITTIVITY;
   const neutralLevelAboveValence_eV = s.neutralLevelAboveValence_eV!;
+  // donor-like surface states under the metal (Ti3+ of surface O vacancies on a reduced oxide), when given
+  const surfaceDonors =
+    s.surfaceDonors_m2 > 0 && s.surfaceDonorLevel_eV !== undefined
+      ? { surfaceDonors: { density_per_m2: s.surfaceDonors_m2, depthBelowConduction_eV: Math.min(s.surfaceDonorLevel_eV, s.bandGap_eV) } }
+      : {};
   if (s.interfaceStateDensity_per_eV_m2 !== undefined) {
-    return { stateDensity_per_eV_m2: s.interfaceStateDensity_per_eV_m2, neutralLevelAboveValence_eV, layerThickness_m, layerPermittivity, pinningFactorOrigin: 'states' };
+    return { stateDensity_per_eV_m2: s.interfaceStateDensity_per_eV_m2, neutralLevelAboveValence_eV, layerThickness_m, layerPermittivity, ...surfaceDonors, pinningFactorOrigin: 'states' };
   }
   const slope = s.pinningFactor ?? empiricalPinningFactor(s.opticalPermittivity);
   // D_it = (1/S - 1) eps_i eps0 / (q^2 delta) (Cowley & Sze 1965), capped at the solver's largest density
@@ -102,6 +107,7 @@ export function interfaceParametersOf(r: ResolvedContact): InterfaceStateParamet
     neutralLevelAboveValence_eV,
     layerThickness_m,
     layerPermittivity,
+    ...surfaceDonors,
     pinningFactorOrigin: s.pinningFactor !== undefined ? 'given' : 'empirical',
   };
 }

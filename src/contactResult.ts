@@ -176,6 +176,12 @@ function interfaceStatesInfo(p: ContactPhysics): InterfaceStatesInfo | null {
     layerThickness_nm: a.layerThickness_m * NM_PER_M,
     layerPermittivity: a.layerPermittivity,
     interfaceStateCharge_C_per_m2: a.interfaceStateCharge_C_per_m2,
+    surfaceDonors_per_cm2: (a.surfaceDonors?.density_per_m2 ?? 0) * CM2_PER_M2,
+    surfaceDonorLevel_eV: a.surfaceDonors?.depthBelowConduction_eV ?? null,
+    surfaceDonorCharge_C_per_m2: a.surfaceDonorCharge_C_per_m2,
+    surfaceDonorsIonisedFraction:
+      a.surfaceDonors !== undefined && a.surfaceDonors.density_per_m2 > 0 ? a.surfaceDonorCharge_C_per_m2 / (Q_ELEMENTARY_C * a.surfaceDonors.density_per_m2) : null,
+    electronsFromSurfaceDonors: a.surfaceDonorCharge_C_per_m2 * share,
     metalCharge_C_per_m2: a.metalCharge_C_per_m2,
     layerDrop_eV: a.layerDrop_eV,
     electronsFromInterfaceStates: a.interfaceStateCharge_C_per_m2 * share,

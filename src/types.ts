@@ -231,8 +231,16 @@ export interface InterfaceStatesInfo {
   neutralLevelAboveValence_eV: number;
   layerThickness_nm: number;
   layerPermittivity: number;
-  /** charge of the interface states, C/m^2 (positive = states gave electrons to the metal) */
+  /** charge of the interface states, C/m^2 (positive = states gave electrons to the metal); includes the surface donors */
   interfaceStateCharge_C_per_m2: number;
+  /** donor-like surface states given (--surface-donors), per cm^2, and their depth below E_C, eV (null: none) */
+  surfaceDonors_per_cm2: number;
+  surfaceDonorLevel_eV: number | null;
+  /** the ionised surface donors' part of the interface charge, C/m^2, and the fraction of them ionised */
+  surfaceDonorCharge_C_per_m2: number;
+  surfaceDonorsIonisedFraction: number | null;
+  /** electrons the particle gained from the surface donors under it (part of electronsFromInterfaceStates) */
+  electronsFromSurfaceDonors: number;
   /** charge of the metal side, C/m^2: -(space charge + interface states) */
   metalCharge_C_per_m2: number;
   /** potential step across the interfacial layer (vacuum level, metal minus support), eV */

@@ -291,6 +291,11 @@ describe('band diagram: interface states and localised level', () => {
       electronsFromInterfaceStates: 0.5,
       electronsFromSpaceCharge: 1.5,
       evaluations: 9,
+      surfaceDonors_per_cm2: 0,
+      surfaceDonorLevel_eV: null,
+      surfaceDonorCharge_C_per_m2: 0,
+      surfaceDonorsIonisedFraction: null,
+      electronsFromSurfaceDonors: 0,
     },
     bulk: { ...fixture.bulk, localisedElectrons_cm3: 1e18 },
     inputs: [

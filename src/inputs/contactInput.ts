@@ -62,6 +62,9 @@ export interface ResolvedSupport {
   interfaceStateDensity_per_eV_m2: number | undefined;
   interfaceLayerThickness_m: number | undefined;
   interfaceLayerPermittivity: number | undefined;
+  /** interface-states model: donor-like surface states per m^2 (0: none) and their depth below E_C, eV */
+  surfaceDonors_m2: number;
+  surfaceDonorLevel_eV: number | undefined;
   /** localised (small-polaron) electron sites per m^3 and their depth below E_C, eV */
   localisedSites_m3: number | undefined;
   localisedLevel_eV: number | undefined;
@@ -499,6 +502,7 @@ function assembleResolved(c: Resolution): ResolvedContact {
   required(c, 'bandGap', 'an energy, e.g. "3.2 eV" (or a library support via --support)');
   required(c, 'electronAffinity', 'an energy, e.g. "4.2 eV", or --support-formula to estimate it');
   required(c, 'permittivity', 'a relative permittivity >= 1');
+  if ((c.num('surfaceDonors') ?? 0) > 0) required(c, 'surfaceDonorLevel', `an energy below E_C (the library has no localised level for ${c.records.support?.name ?? 'this support'})`);
   checkResolved(c);
   const { metal: m, support: s } = c.records;
   const numbers = (pv: PropertyValue | undefined, field: string, unit: string): number | undefined => {
@@ -537,6 +541,8 @@ function assembleResolved(c: Resolution): ResolvedContact {
     interfaceStateDensity_per_eV_m2: c.num('interfaceStateDensity'),
     interfaceLayerThickness_m: c.num('interfaceLayerThickness'),
     interfaceLayerPermittivity: c.num('interfaceLayerPermittivity'),
+    surfaceDonors_m2: c.num('surfaceDonors') ?? 0,
+    surfaceDonorLevel_eV: c.num('surfaceDonorLevel'),
     localisedSites_m3: c.num('localisedSites'),
     localisedLevel_eV: c.num('localisedLevel'),
     reductionEnthalpy_eV: c.num('reductionEnthalpy'),

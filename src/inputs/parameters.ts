@@ -88,6 +88,10 @@ export interface ContactOptions {
   interfaceLayerThickness?: QuantityInput;
   /** relative permittivity of the interfacial layer (interface-states model) @default library value, else 1 */
   interfaceLayerPermittivity?: QuantityInput;
+  /** donor-like defect states at the support surface under the metal (e.g. the Ti3+ of surface O vacancies on reduced TiO2), per cm^2 if bare (interface-states model) @default 0 (a stoichiometric surface) */
+  surfaceDonors?: QuantityInput;
+  /** thermal depth of the surface donors below E_C @default library localised level of the support */
+  surfaceDonorLevel?: QuantityInput;
   /** density of sites for localised (small-polaron) electrons, cm^-3 if bare @default library value of the support, else none */
   localisedSites?: QuantityInput;
   /** thermal (0/-) depth of the localised-electron level below E_C (a photoemission peak lies about twice as deep: src/bulk/polaron.ts) @default library value of the support */
@@ -180,7 +184,7 @@ export type SampledField =
   // interface states, localised states and the finite particle (issue 11); the last three have no table row and
   // are sampled in derived/uncertainty.ts from their defaults' published ranges / the metal's library range
   | 'pinningFactor' | 'neutralLevelAboveValence_eV' | 'localisedSites_m3' | 'localisedLevel_eV'
-  | 'interfaceLayerThickness_m' | 'interfaceLayerPermittivity' | 'sizeWorkFunctionCoefficient'
+  | 'interfaceLayerThickness_m' | 'interfaceLayerPermittivity' | 'sizeWorkFunctionCoefficient' | 'surfaceDonorLevel_eV'
   // reduction thermodynamics (issue 12)
   | 'reductionEnthalpy_eV' | 'reductionEntropy_kB';
 
@@ -500,6 +504,21 @@ const ROWS: { readonly [K in OptionName]-?: RowSpec } = {
     sampling: 'uniform', sampledAs: 'interfaceLayerPermittivity',
     fallback: { value: DEFAULT_INTERFACE_LAYER_PERMITTIVITY, note: 'vacuum-like gap of Cowley & Sze (1965) (from memory, verify)' },
     when: INTERFACE_STATES,
+  },
+  surfaceDonors: {
+    flag: '--surface-donors <N>',
+    help: 'donor-like defect states at the support surface under the metal, e.g. the Ti3+ electrons of surface O vacancies on a reduced oxide (per cm^2 if bare)',
+    defaultText: '0 (a stoichiometric surface)',
+    kind: 'quantity', quantity: 'arealDensity', limits: [0, 1e19], label: 'surface donor density',
+    fallback: { value: 0, note: 'not given: a stoichiometric surface without donor states' },
+    when: INTERFACE_STATES,
+  },
+  surfaceDonorLevel: {
+    flag: '--surface-donor-level <E>', help: 'thermal depth of the surface donors below E_C', defaultText: 'library localised level of the support',
+    ...energy(LEVEL_EV), label: 'surface donor level (depth below E_C)', library: (r) => r.support?.localisedLevel_eV,
+    libraryLabel: () => "surface donor level (the support's localised level)",
+    sampling: 'uniform', sampledAs: 'surfaceDonorLevel_eV',
+    when: { test: (c) => positive(c, 'surfaceDonors'), text: 'with --surface-donors' },
   },
   localisedSites: {
     flag: '--localised-sites <N>', help: 'sites for localised (small-polaron) electrons (cm^-3 if bare)', defaultText: 'library value of the support, else none',

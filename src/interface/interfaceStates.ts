@@ -26,6 +26,11 @@
 //   neutral at E_F = phi_0, donor-like below it and acceptor-like above it, as the linear Cowley–Sze relation
 //   assumes. Below E_top the choice of E_top does not enter (zero-temperature step), and E_F at the interface stays
 //   below it for every contact whose barrier lies above -(phi_0 - E_g).
+//   Surface donors (optional): a sheet of donor-like defect states at the support surface, N_sd per m^2 at a depth
+//   E_sd below E_C (e.g. the Ti3+ electrons that surface O vacancies leave on reduced TiO2(110)), ionised with the
+//   donor occupancy of Sze & Ng (Physics of Semiconductor Devices, 3rd ed., ch. 1, N_D+ = N_D / (1 + g_D
+//   exp((E_F - E_D)/kT)), g_D = 2): Q_sd = q N_sd / (1 + 2 exp((E_sd - Phi_B)/kT)) >= 0, non-decreasing in Phi_B.
+//   They add to Q_it (Bardeen, Phys. Rev. 71, 717 (1947): surface states at one level pin E_F near it when dense).
 // The residual R(V) = Phi_B(V) - phi_m + chi - Q_m(V) delta/(eps_i eps0) [+ particle term] is strictly increasing
 // in V (slope >= 1: every term is non-decreasing), so it has exactly one root, and one evaluation at any V0 brackets
 // it: the root lies between V0 and V0 - R(V0) (closer still, solveBending). Each evaluation costs the caller one
@@ -60,6 +65,36 @@ export interface InterfaceStateParameters {
   layerThickness_m: number;
   /** eps_i, 1 to 1000 (library `interfaceLayerPermittivity`) */
   layerPermittivity: number;
+  /** donor-like defect states at the support surface (absent or density 0: none) */
+  surfaceDonors?: SurfaceDonors | undefined;
+}
+
+/** A sheet of donor-like surface states at one level (src/interface/interfaceStates.ts header). */
+export interface SurfaceDonors {
+  /** N_sd, donors per m^2, 0 to 1e19 (= 1e15 cm^-2, about two per surface site) */
+  density_per_m2: number;
+  /** E_C - E_sd, thermal depth of the level below E_C, eV, 0 to E_g */
+  depthBelowConduction_eV: number;
+}
+
+/** Spin degeneracy of a singly occupied donor level, g_D = 2 (Sze & Ng, 3rd ed., ch. 1; section from memory, verify). */
+export const DONOR_DEGENERACY = 2;
+
+/**
+ * Charge of ionised surface donors, C/m^2, at electron barrier Phi_B = E_C(0) - E_F (eV):
+ *   T given:   Q_sd = q N_sd / (1 + g_D exp((E_sd_depth - Phi_B)/kT))   (E_F - E_sd = E_sd_depth - Phi_B)
+ *   T omitted: the zero-temperature step, q N_sd where Phi_B > E_sd_depth, else 0 (half-way at equality is not
+ *   used: the step takes the ionised side only strictly above the level).
+ * Always in [0, q N_sd] and non-decreasing in Phi_B (the residual's monotonicity is kept).
+ */
+export function surfaceDonorCharge_C_per_m2(electronBarrier_eV: number, donors: SurfaceDonors | undefined, temperature_K?: number): number {
+  if (donors === undefined || donors.density_per_m2 === 0) return 0;
+  const full = Q_ELEMENTARY_C * donors.density_per_m2;
+  const x = donors.depthBelowConduction_eV - electronBarrier_eV;
+  if (temperature_K === undefined) return x < 0 ? full : 0;
+  const z = x / thermalEnergy_eV(temperature_K);
+  // 1 / (1 + g e^z) without overflow: for z > 0 write e^-z / (e^-z + g)
+  return z > 0 ? (full * Math.exp(-z)) / (Math.exp(-z) + DONOR_DEGENERACY) : full / (1 + DONOR_DEGENERACY * Math.exp(z));
 }
 
 /**
@@ -87,6 +122,10 @@ function checkParameters(p: InterfaceStateParameters, bandGap_eV: number): void 
   requireInRange('neutralLevelAboveValence_eV', p.neutralLevelAboveValence_eV, ...neutralLevelRange_eV(bandGap_eV), 'eV');
   requireInRange('layerThickness_m', p.layerThickness_m, 0, 1e-8, 'm');
   requireInRange('layerPermittivity', p.layerPermittivity, 1, 1000, '');
+  if (p.surfaceDonors !== undefined) {
+    requireInRange('surfaceDonors.density_per_m2', p.surfaceDonors.density_per_m2, 0, 1e19, 'm^-2');
+    requireInRange('surfaceDonors.depthBelowConduction_eV', p.surfaceDonors.depthBelowConduction_eV, 0, bandGap_eV, 'eV');
+  }
 }
 
 /**
@@ -205,7 +244,10 @@ export interface InterfaceAlignment {
   /** E_C(0) - E_C(bulk), eV */
   bandBending_eV: number;
   spaceCharge_C_per_m2: number;
+  /** all interface charge at the support surface, C/m^2: the gap states (Q_it) and the ionised surface donors */
   interfaceStateCharge_C_per_m2: number;
+  /** the ionised surface donors' part of it, C/m^2 (0 without surface donors) */
+  surfaceDonorCharge_C_per_m2: number;
   /** metal charge facing the layer, C/m^2 (= -(Q_sc + Q_it) for an extended contact) */
   metalCharge_C_per_m2: number;
   /** Delta = -Q_m delta / (eps_i eps0): rise of the electron energy across the layer, metal to support, eV */
@@ -239,7 +281,10 @@ interface AlignmentState {
   bandBending_eV: number;
   residual: number;
   qsc: number;
+  /** gap states and surface donors together */
   qit: number;
+  /** surface donors alone */
+  qsd: number;
   qm: number;
   electrons: number;
   shift: number;
@@ -256,7 +301,8 @@ function alignmentState(input: InterfaceAlignmentInput): (v: number, qsc: number
   const layer = input.layerThickness_m / (input.layerPermittivity * EPS0_F_PER_M); // V per (C/m^2)
   return (v: number, qsc: number): AlignmentState => {
     const barrier = input.fermiLevelBelowConduction_eV + v;
-    const qit = interfaceStateCharge_C_per_m2(barrier, input.bandGap_eV, input.neutralLevelAboveValence_eV, input.stateDensity_per_eV_m2, input.temperature_K);
+    const qsd = surfaceDonorCharge_C_per_m2(barrier, input.surfaceDonors, input.temperature_K);
+    const qit = interfaceStateCharge_C_per_m2(barrier, input.bandGap_eV, input.neutralLevelAboveValence_eV, input.stateDensity_per_eV_m2, input.temperature_K) + qsd;
     let qm = -(qsc + qit);
     let electrons = 0;
     let shift = 0;
@@ -266,19 +312,23 @@ function alignmentState(input: InterfaceAlignmentInput): (v: number, qsc: number
       qm = (-Q_ELEMENTARY_C * electrons) / particle.footprintArea_m2;
     }
     const residual = barrier - (input.metalWorkFunction_eV - shift - input.electronAffinity_eV + qm * layer);
-    return { bandBending_eV: v, residual, qsc, qit, qm, electrons, shift };
+    return { bandBending_eV: v, residual, qsc, qit, qsd, qm, electrons, shift };
   };
 }
 
 /**
  * Bounds of the root from the theory alone: at the largest of the Schottky–Mott bending, the pinned bending and 0
- * every charge term is >= 0, so R >= 0 there; symmetric at the smallest (1e-3 eV margin).
+ * every charge term is >= 0, so R >= 0 there; symmetric at the smallest (1e-3 eV margin). Surface donors (always
+ * >= 0) can only lower the root: the lower bound then also reaches 1 eV below their level, where they are nearly
+ * neutral (bracketBending widens it further if a sign is still missing).
  */
 function theoryBracket(input: InterfaceAlignmentInput): { lo: number; hi: number } {
   const xiBulk = input.fermiLevelBelowConduction_eV;
   const vSchottkyMott = input.metalWorkFunction_eV - input.electronAffinity_eV - xiBulk;
   const vPinned = input.bandGap_eV - input.neutralLevelAboveValence_eV - xiBulk;
-  return { lo: Math.min(vSchottkyMott, vPinned, 0) - 1e-3, hi: Math.max(vSchottkyMott, vPinned, 0) + 1e-3 };
+  const donors = input.surfaceDonors;
+  const vDonors = donors !== undefined && donors.density_per_m2 > 0 ? donors.depthBelowConduction_eV - 1 - xiBulk : Infinity;
+  return { lo: Math.min(vSchottkyMott, vPinned, 0, vDonors) - 1e-3, hi: Math.max(vSchottkyMott, vPinned, 0) + 1e-3 };
 }
 
 /**
@@ -526,6 +576,7 @@ export function solveInterfaceAlignment(input: InterfaceAlignmentInput): Interfa
     bandBending_eV: state.bandBending_eV,
     spaceCharge_C_per_m2: state.qsc,
     interfaceStateCharge_C_per_m2: state.qit,
+    surfaceDonorCharge_C_per_m2: state.qsd,
     metalCharge_C_per_m2: state.qm,
     layerDrop_eV: -state.qm * layer,
     pinningFactor: 1 / (1 + Q_ELEMENTARY_C * input.stateDensity_per_eV_m2 * layer),

@@ -84,7 +84,10 @@ export function contactAssumptions(result: ContactResult): string[] {
         ? 'The barrier height was given as an input; interface states are not modelled.'
         : result.barrierModel === 'interface-states'
           ? 'Interface states (Bardeen; Cowley & Sze): a uniform density per eV around a charge-neutrality level, behind a thin ' +
-            'interfacial layer, solved together with the space charge; the particle counts the interface-state charge under its contact.'
+            'interfacial layer, solved together with the space charge; the particle counts the interface-state charge under its contact.' +
+            (result.interfaceStates !== null && result.interfaceStates.surfaceDonors_per_cm2 > 0
+              ? ' Donor-like surface states (--surface-donors) at one level add to the interface charge as they ionise.'
+              : '')
           : 'Ideal contact: no interface states, the barrier follows the work-function difference (Schottky–Mott limit).';
   const geometry: Record<string, string> = {
     planar: 'a planar contact (per unit area)',
@@ -242,6 +245,10 @@ function interfaceStateRows(result: ContactResult): ResultRow[] {
   add('metal charge -(space charge + interface states)', perCm2(it.metalCharge_C_per_m2));
   add('potential step across the layer', formatQuantity(it.layerDrop_eV, 'eV'));
   add('electrons to the particle from interface states / space charge', `${formatSigned(it.electronsFromInterfaceStates)} / ${formatSigned(it.electronsFromSpaceCharge)}`);
+  if (it.surfaceDonors_per_cm2 > 0) {
+    add('surface donors (density, depth below E_C)', `${formatQuantity(it.surfaceDonors_per_cm2, 'cm^-2')}, ${formatQuantity(it.surfaceDonorLevel_eV!, 'eV')}`);
+    add('surface donors ionised (part of the interface-state charge)', `${formatNumber(100 * (it.surfaceDonorsIonisedFraction ?? 0))}%, ${perCm2(it.surfaceDonorCharge_C_per_m2)}`);
+  }
   return rows;
 }
 

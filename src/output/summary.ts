@@ -74,6 +74,13 @@ function nanoscaleRows(result: ContactResult): [string, string][] {
       `${formatQuantity(is.stateDensity_per_eV_cm2, 'eV^-1 cm^-2')}, neutral level ${formatQuantity(is.neutralLevelAboveValence_eV, 'eV')} above E_V; ` +
         `electrons per particle from interface states ${formatSigned(is.electronsFromInterfaceStates)}, from the space charge ${formatSigned(is.electronsFromSpaceCharge)}`,
     ]);
+    if (is.surfaceDonors_per_cm2 > 0) {
+      rows.push([
+        'surface donors',
+        `${formatQuantity(is.surfaceDonors_per_cm2, 'cm^-2')} at ${formatQuantity(is.surfaceDonorLevel_eV!, 'eV')} below E_C, ` +
+          `${formatNumber(100 * (is.surfaceDonorsIonisedFraction ?? 0))}% ionised (${formatSigned(is.electronsFromSurfaceDonors)} electrons per particle, counted in the interface states)`,
+      ]);
+    }
   }
   if (result.geometry !== 'planar') rows.push(['particle work function (size-corrected)', formatQuantity(result.particleWorkFunction_eV, 'eV')]);
   if (result.bulk.localisedElectrons_cm3 > 0) rows.push(['localised electrons (bulk, polarons)', formatQuantity(result.bulk.localisedElectrons_cm3, 'cm^-3')]);
