@@ -22,6 +22,7 @@ import {
   fractionMagnitudeReached,
   fractionSignReached,
   meanBandWidth,
+  ObservableMissing,
   rowScatter,
   type RowScatter,
   type ScatterRequest,
@@ -462,7 +463,7 @@ export function predictedBarrier_eV(result: ContactResult, quantity: BarrierRow[
     const depleted = result.bandBending_eV > 0;
     return result.electronBarrier_eV - (seesTop && depleted ? result.imageForceLowering_eV : 0);
   }
-  if (result.barrierCarrier !== 'hole') throw new RangeError('hole barrier measured, but the model gives an electron barrier for this support (not p-type)');
+  if (result.barrierCarrier !== 'hole') throw new ObservableMissing('hole barrier measured, but the model gives an electron barrier for this support (not p-type)');
   const depleted = result.bandBending_eV < 0;
   return result.barrierHeight_eV - (seesTop && depleted ? result.imageForceLowering_eV : 0);
 }

@@ -9,6 +9,17 @@ import { percentile, sampleInputs, samplingRanges, seededRandom } from '../deriv
 import { ConvergenceError, isModelFailure, requireInRange } from '../errors.js';
 import type { ContactResult } from '../types.js';
 
+/**
+ * A contact that has no value of the row's observable (a hole barrier measured, but the sample came out n-type):
+ * a failed sample in the scatter, a failed row otherwise. A RangeError, so callers that test for one still match.
+ */
+export class ObservableMissing extends RangeError {
+  constructor(message: string) {
+    super(message);
+    this.name = 'ObservableMissing';
+  }
+}
+
 /** Probability below which a sign counts as out of the model's reach (the 5% tail of a 90% band). */
 export const SCATTER_TAIL = 0.05;
 
@@ -77,7 +88,7 @@ export function rowScatter(
     } catch (error) {
       // a sampled combination outside the model (or an observable the sample does not have, e.g. a hole barrier of a
       // sample that turned n-type) is a failed sample; anything else is a bug and surfaces
-      if (!isModelFailure(error) && !(error instanceof RangeError)) throw error;
+      if (!isModelFailure(error) && !(error instanceof ObservableMissing)) throw error;
       failed++;
       continue;
     }
