@@ -171,6 +171,7 @@ async function runValidate(opts: Record<string, unknown>): Promise<void> {
     const { formatNumber } = await import('../output/summary.js');
     process.stdout.write(`${statisticsTable(runs, formatNumber)}\n`);
     process.stdout.write('MAE: mean absolute error of predicted vs measured; see validation/README.md for the gallery and its sources.\n');
+    if (scatter && scatter.samples < 100) notice(`--scatter ${scatter.samples}: fewer than 100 samples per row, so the 5% and 95% ends of each band are rough`);
     if (report !== undefined) notice(`report written: ${written[0]}`);
   }
 }
