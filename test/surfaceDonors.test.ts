@@ -23,6 +23,8 @@ import { resolveContact } from '../src/inputs/contactInput.js';
 import { samplingRanges } from '../src/derived/uncertainty.js';
 import { InputError } from '../src/errors.js';
 import { CODATA2018 } from './helpers.js';
+import { bandDiagramSpec } from '../src/output/figures.js';
+import { formatContactSummary } from '../src/output/summary.js';
 
 const Q = CODATA2018.q;
 const EPS0 = 8.8541878128e-12; // CODATA 2018
@@ -155,6 +157,17 @@ describe('--surface-donors in a contact', () => {
     expect(without.interfaceStates!.surfaceDonorsIonisedFraction).toBeNull();
     // an explicit 0 is the same contact as none
     expect(solveContact({ ...base, surfaceDonors: 0 }).barrierHeight_eV).toBe(without.barrierHeight_eV);
+  });
+
+  it('the summary and the band diagram say how many of them are ionised; without them neither mentions them', () => {
+    const r = solveContact({ ...base, surfaceDonors: 1e14 });
+    const pct = Math.round(100 * r.interfaceStates!.surfaceDonorsIonisedFraction!);
+    expect(formatContactSummary(r)).toMatch(/surface donors\s+1e\+?14 cm\^-2 at 0\.425 eV below E_C, \d+(\.\d+)?% ionised/);
+    const subtitle = JSON.stringify((bandDiagramSpec(r) as { title?: unknown }).title);
+    expect(subtitle).toContain(`surface donors 0.425 eV below E_C: ${pct}% of 1e14 cm⁻² ionised`);
+    const plain = solveContact(base);
+    expect(formatContactSummary(plain)).not.toContain('surface donors');
+    expect(JSON.stringify((bandDiagramSpec(plain) as { title?: unknown }).title)).not.toContain('surface donors');
   });
 
   it('its level is sampled by --uncertainty within the library range of the localised level', () => {

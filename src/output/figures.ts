@@ -359,7 +359,8 @@ function interfaceStateLayers(result: ContactResult, pts: readonly SupportPoint[
 
 /**
  * Subtitle lines of the band diagram: the model, then (when present) the interface-state charge (Q_it / q per nm^2,
- * + when the states gave electrons to the metal) with the electrons they passed to the particle, and the occupancy
+ * + when the states gave electrons to the metal) with the electrons they passed to the particle, the ionised share of
+ * surface donors, and the occupancy
  * of the localised level in the bulk and at the interface.
  */
 function diagramSubtitle(result: ContactResult, localised: LocalisedLevelView | null): string[] {
@@ -371,6 +372,12 @@ function diagramSubtitle(result: ContactResult, localised: LocalisedLevelView | 
       `interface states (CNL ${formatNumber(it.neutralLevelAboveValence_eV)} eV above E_V): charge ${formatSigned(perNm2)} q/nm², ` +
         `${formatSigned(it.electronsFromInterfaceStates)} electrons to the particle`,
     );
+    if (it.surfaceDonors_per_cm2 > 0) {
+      lines.push(
+        `surface donors ${formatNumber(it.surfaceDonorLevel_eV!)} eV below E_C: ${formatNumber(100 * (it.surfaceDonorsIonisedFraction ?? 0), 2)}% of ` +
+          `${formatNumber(it.surfaceDonors_per_cm2, 2)} cm⁻² ionised (in the interface-state charge)`,
+      );
+    }
   }
   if (localised !== null) {
     const pct = (f: number) => `${formatNumber(100 * f, 2)}%`;
