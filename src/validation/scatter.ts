@@ -92,10 +92,8 @@ export function rowScatter(
       failed++;
       continue;
     }
-    if (!Number.isFinite(value)) {
-      failed++;
-      continue;
-    }
+    // the solver never returns a non-finite value (a bug if it did): surface it, never count it as a failed sample
+    if (!Number.isFinite(value)) throw new Error(`scatter sample ${i} of row ${request.id}: the observable is ${value}`);
     values.push(value);
     if (signOf) counts[signOf(value)]++;
   }
