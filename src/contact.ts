@@ -1,6 +1,7 @@
 // One metal/support contact, the whole pipeline:
 // inputs -> materials -> bulk equilibrium -> barrier -> electrostatics -> derived results.
-import { InputError } from './errors.js';
+import { InputError, isModelFailure } from './errors.js';
+import { capacitanceBarrier, type CapacitanceBarrier } from './derived/capacitanceVoltage.js';
 import { propagateUncertainty } from './derived/uncertainty.js';
 import { resolveContact, withVacancyDonors, supportElectronicOf, type ContactOptions, type ResolvedContact } from './inputs/contactInput.js';
 import { makeChargeModel, solveBulkNeutrality, type ChargeModel } from './bulk/equilibrium.js';
@@ -244,7 +245,48 @@ function derivePhysics(c: SolvedContact, planarCharge: ChargeOfBending): Contact
     zonesOverlap: meanSpacing !== null ? depth90_m > meanSpacing / 2 : null,
     exchange: exchangeKinetics(c, spaceCharge, planarCharge),
     imageForce: imageForceValidity(clamp(field_V_per_m, 1e12), clamp(s.opticalPermittivity, 1e3)),
+    capacitanceBarrier: capacitanceBarrierOf(c, planarCharge),
   };
+}
+
+/**
+ * What a C-V measurement of a planar contact on an n-type support would report (src/derived/capacitanceVoltage.ts):
+ * the depletion charge at each reverse bias V_R with the metal's Fermi level fixed, from the planar first integral
+ * (exact for the planar solve). A fixed barrier (ideal, pinned, given) bends the bands by V + V_R; with interface
+ * states the alignment is solved again at the bias (bulk E_C - E_F lowered by V_R against the metal, the states in
+ * equilibrium with the metal, Cowley & Sze 1965) and the charge is minus the metal's. Null elsewhere, or where the
+ * contact is not depleted over the range or the alignment fails at a bias.
+ */
+function capacitanceBarrierOf(c: SolvedContact, planarCharge: ChargeOfBending): CapacitanceBarrier | null {
+  if (c.r.geometry !== 'planar' || !c.nType || c.bandBending_eV <= 0) return null;
+  const xi = c.bulk.fermiLevelBelowConduction_eV;
+  const states = c.interfaceStates;
+  const s = c.r.support;
+  const charge =
+    states === null
+      ? (bias: number) => planarCharge(c.bandBending_eV + bias)
+      : (bias: number) =>
+          -solveInterfaceAlignment({
+            stateDensity_per_eV_m2: states.stateDensity_per_eV_m2,
+            neutralLevelAboveValence_eV: states.neutralLevelAboveValence_eV,
+            layerThickness_m: states.layerThickness_m,
+            layerPermittivity: states.layerPermittivity,
+            surfaceDonors: states.surfaceDonors,
+            metalWorkFunction_eV: particleWorkFunction_eV(c.r),
+            electronAffinity_eV: s.electronAffinity_eV,
+            bandGap_eV: s.bandGap_eV,
+            fermiLevelBelowConduction_eV: xi - bias,
+            temperature_K: c.r.temperature_K,
+            spaceCharge: planarCharge,
+            spaceChargeEstimate: planarCharge,
+            tolerance_eV: 1e-10,
+          }).metalCharge_C_per_m2;
+  try {
+    return capacitanceBarrier(charge, xi, c.model.kT_eV);
+  } catch (error) {
+    if (isModelFailure(error)) return null;
+    throw error;
+  }
 }
 
 /** Atoms of the particle, when the metal's density, molar mass and metallic radius are known. */

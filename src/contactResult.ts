@@ -6,6 +6,7 @@ import type { InterfaceAlignment, InterfaceStateParameters } from './interface/i
 import { Q_ELEMENTARY_C } from './constants.js';
 import type { BulkState, ChargeModel } from './bulk/equilibrium.js';
 import { imageForceLowering_eV, type BarrierResult } from './barrier/barrier.js';
+import type { CapacitanceBarrier } from './derived/capacitanceVoltage.js';
 import type { CrossSection } from './electrostatics/geometry.js';
 import type { PoissonSolution } from './electrostatics/poisson.js';
 import type { ParticleAtomCount, ChargingSummary } from './derived/particle.js';
@@ -61,6 +62,8 @@ export interface ContactPhysics {
   /** interface-states model: the self-consistent alignment (null for the other barrier models) */
   interfaceStates: (InterfaceAlignment & InterfaceStateParameters) | null;
   imageForce: ImageForceCheck;
+  /** what a C-V measurement would report (planar, n-type, depleted), else null */
+  capacitanceBarrier: CapacitanceBarrier | null;
 }
 
 const NM_PER_M = 1e9;
@@ -113,6 +116,8 @@ export function toContactResult(p: ContactPhysics, warnings: Warning[]): Contact
     interfacePermittivity: p.interfacePermittivity,
     permittivityNonlinearity_V_m5_per_C3: s.permittivityNonlinearity_V_m5_per_C3,
     imageForceLowering_eV: imageForceLowering_eV(p.interfaceField_V_per_m, s.opticalPermittivity),
+    capacitanceBarrier:
+      p.capacitanceBarrier === null ? null : { barrier_eV: p.capacitanceBarrier.barrier_eV, rSquared: p.capacitanceBarrier.rSquared, reverseBias_V: p.capacitanceBarrier.reverseBias_V },
     imageForceMaximum_nm: p.imageForce.maximumDistance_m * NM_PER_M,
     imageForceContinuumValid: p.imageForce.valid,
     electronsPerParticle: p.electronsPerParticle,

@@ -178,6 +178,12 @@ export interface ContactResult {
   /** quartic Landau coefficient of the support used in the solve, V m^5 C^-3 (0: linear dielectric) */
   permittivityNonlinearity_V_m5_per_C3: number;
   imageForceLowering_eV: number;
+  /**
+   * the barrier a capacitance-voltage measurement of this contact would report (Mott–Schottky analysis of the model's
+   * own C(V), 0-1 V reverse bias; src/derived/capacitanceVoltage.ts): planar contacts on n-type supports in depletion,
+   * else null
+   */
+  capacitanceBarrier: CapacitanceBarrierInfo | null;
   /** distance of the image-force barrier maximum from the metal, nm */
   imageForceMaximum_nm: number;
   /** false when that maximum lies within ~1 nm of the metal (continuum image force doubtful) */
@@ -222,6 +228,15 @@ export interface ContactResult {
   /** provenance of every input used */
   inputs: InputProvenance[];
   uncertainty?: UncertaintySummary;
+}
+
+export interface CapacitanceBarrierInfo {
+  /** the barrier the Mott–Schottky intercept gives, eV (V_bi from the intercept + kT/q + bulk E_C - E_F) */
+  barrier_eV: number;
+  /** linearity of 1/C^2 against bias (1 = straight) */
+  rSquared: number;
+  /** reverse bias range of the simulated measurement, V */
+  reverseBias_V: [number, number];
 }
 
 export interface InterfaceStatesInfo {

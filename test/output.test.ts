@@ -107,6 +107,7 @@ function depletionFixture(over: Partial<FixtureParams> = {}): ContactResult {
     interfacePermittivity: 10,
     permittivityNonlinearity_V_m5_per_C3: 0,
     imageForceLowering_eV: 0.031,
+    capacitanceBarrier: null,
     imageForceMaximum_nm: 2.5,
     imageForceContinuumValid: true,
     electronsPerParticle: (spaceCharge * area_m2) / Q,

@@ -288,10 +288,18 @@ describe('outputs', () => {
       materials: emptyLibrary(),
     });
     const leaves: string[] = [];
+    const listedPaths = OUTPUT_PATHS as readonly string[];
     const walk = (node: unknown, prefix: string): void => {
       for (const [k, v] of Object.entries(node as Record<string, unknown>)) {
         const path = prefix + k;
         if (Array.isArray(v)) continue;
+        // an object that is null in this result (capacitanceBarrier of a particle array): its listed fields read null
+        const children = listedPaths.filter((p) => p.startsWith(`${path}.`));
+        if (v === null && children.length > 0) {
+          for (const c of children) expect(readOutput(result, c), c).toBeNull();
+          leaves.push(...children);
+          continue;
+        }
         if (v !== null && typeof v === 'object') walk(v, `${path}.`);
         else leaves.push(path);
       }

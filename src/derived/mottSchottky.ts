@@ -124,7 +124,7 @@ export interface MottSchottkyFit {
   temperature_K: number;
 }
 
-interface LinearFit {
+export interface LinearFit {
   intercept: number;
   slope: number;
   interceptVariance: number;
@@ -137,7 +137,7 @@ interface LinearFit {
  * Ordinary least squares y = a + b x through the design matrix X = [1, x]: beta by QR (ml-matrix solve),
  * covariance s^2 (X^T X)^-1 with s^2 = RSS / (n - 2), the unbiased residual variance.
  */
-function fitStraightLine(x: number[], y: number[]): LinearFit {
+export function fitStraightLine(x: number[], y: number[]): LinearFit {
   const n = x.length;
   const design = new Matrix(n, 2);
   for (let i = 0; i < n; i++) {

@@ -224,6 +224,10 @@ function barrierRows(result: ContactResult, kT: number): ResultRow[] {
   add('support work function', formatQuantity(result.supportWorkFunction_eV, 'eV'));
   add('bulk E_C - E_F', formatQuantity(result.fermiLevelBelowConduction_eV, 'eV'));
   add('image-force lowering', formatQuantity(result.imageForceLowering_eV, 'eV'));
+  if (result.capacitanceBarrier) {
+    const cv = result.capacitanceBarrier;
+    add('barrier a C-V measurement reports (Mott-Schottky intercept of the model C(V), 0-1 V reverse)', `${formatQuantity(cv.barrier_eV, 'eV')} (R^2 ${formatNumber(cv.rSquared, 4)})`);
+  }
   if (result.pinningFactor !== null) add('pinning factor S', formatNumber(result.pinningFactor));
   return rows;
 }

@@ -111,6 +111,9 @@ export function keyResultRows(result: ContactResult): [string, string][] {
       ? ([['permittivity at the interface', `${formatNumber(result.interfacePermittivity)} (field-dependent; Landau-Devonshire beta ${result.permittivityNonlinearity_V_m5_per_C3.toExponential(2)} V m^5 C^-3)`]] as [string, string][])
       : []),
     ['image-force lowering', formatQuantity(result.imageForceLowering_eV, 'eV')],
+    ...(result.capacitanceBarrier
+      ? ([['barrier a C-V measurement reports', `${formatQuantity(result.capacitanceBarrier.barrier_eV, 'eV')} (Mott-Schottky intercept of the model's C(V), 0-1 V reverse)`]] as [string, string][])
+      : []),
     ['electrons per particle', `${formatSigned(result.electronsPerParticle)} (d = ${formatNumber(result.particle.diameter_nm)} nm)`],
     ...nanoscaleRows(result),
   ];

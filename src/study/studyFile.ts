@@ -148,6 +148,8 @@ export const OUTPUT_PATHS = [
   'interfaceStates.layerDrop_eV',
   'interfaceStates.electronsFromInterfaceStates',
   'interfaceStates.electronsFromSpaceCharge',
+  'capacitanceBarrier.barrier_eV',
+  'capacitanceBarrier.rSquared',
   'interfaceStates.surfaceDonors_per_cm2',
   'interfaceStates.surfaceDonorLevel_eV',
   'interfaceStates.surfaceDonorCharge_C_per_m2',

@@ -455,11 +455,15 @@ type AnyRow = BarrierRow | ChargeRow | BandBendingRow;
  * Current-voltage and BEEM rows see the barrier's top, lowered by the image force (Sze & Ng, 3rd ed., sec. 3.2.4;
  * Rhoderick & Williams, Metal-Semiconductor Contacts, 2nd ed., ch. 3: I-V barriers lie below C-V ones by about this
  * much): the contact's imageForceLowering_eV is subtracted there, where the measured carriers are depleted (a barrier
- * with a maximum); the other techniques compare the barrier without it.
+ * with a maximum); capacitance-voltage rows see the barrier a Mott–Schottky analysis of the contact's own C(V) reports
+ * (capacitanceBarrier, when the contact has one); the other techniques compare the barrier without either.
  */
 export function predictedBarrier_eV(result: ContactResult, quantity: BarrierRow['quantity'], technique: BarrierRow['technique'] = 'other'): number {
   const seesTop = technique === 'current-voltage' || technique === 'beem';
   if (quantity === 'electronBarrier_eV') {
+    // a C-V row sees the Mott–Schottky intercept of the contact's C(V) where that analysis applies (a depleted planar
+    // contact with a straight 1/C^2 line: src/derived/capacitanceVoltage.ts), else the barrier itself
+    if (technique === 'capacitance-voltage' && result.capacitanceBarrier) return result.capacitanceBarrier.barrier_eV;
     const depleted = result.bandBending_eV > 0;
     return result.electronBarrier_eV - (seesTop && depleted ? result.imageForceLowering_eV : 0);
   }
