@@ -18,7 +18,7 @@ import { resolveContact, supportElectronicOf } from '../src/inputs/contactInput.
 import { makeChargeModel, solveBulkNeutrality } from '../src/bulk/equilibrium.js';
 import { planarChargeOfBending } from '../src/derived/exchange.js';
 import { interfaceStateCharge_C_per_m2 } from '../src/interface/interfaceStates.js';
-import { CODATA2018 } from './helpers.js';
+import { CODATA2018, bisectIncreasing } from './helpers.js';
 
 const Q = CODATA2018.q;
 const EPS0 = 8.8541878128e-12; // CODATA 2018
@@ -86,14 +86,7 @@ describe('the capacitance barrier of a contact', () => {
     const metalCharge = (bias: number): number => {
       const qm = (phi: number) => -(planar(phi - xi + bias) + interfaceStateCharge_C_per_m2(phi, s.bandGap_eV, p.neutralLevelAboveValence_eV, p.stateDensity_per_eV_m2, T));
       const f = (phi: number) => phi - (resolved.metal.workFunction_eV - s.electronAffinity_eV + qm(phi) * layer);
-      let lo = -2;
-      let hi = 4;
-      for (let i = 0; i < 200; i++) {
-        const mid = 0.5 * (lo + hi);
-        if (f(mid) > 0) hi = mid;
-        else lo = mid;
-      }
-      return qm(0.5 * (lo + hi));
+      return qm(bisectIncreasing(f, -2, 4));
     };
     const h = CV_BIAS_STEP_V;
     const xs: number[] = [];

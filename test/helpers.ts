@@ -55,6 +55,21 @@ export function boltzmannPlanarCharge(n0_m3: number, p0_m3: number, u: number, r
 }
 
 /** Minimal RFC 4180 reader for one line: quoted cells with "" escapes (bandbend never writes embedded newlines). */
+/**
+ * Root of an increasing function on [lo, hi] by plain bisection, 200 halvings (common practice, no source): an
+ * independent reference for the project's safeguarded root finders. f(lo) < 0 < f(hi) is assumed.
+ */
+export function bisectIncreasing(f: (x: number) => number, lo: number, hi: number): number {
+  let a = lo;
+  let b = hi;
+  for (let i = 0; i < 200; i++) {
+    const mid = 0.5 * (a + b);
+    if (f(mid) > 0) b = mid;
+    else a = mid;
+  }
+  return 0.5 * (a + b);
+}
+
 export function parseCsvLine(line: string): string[] {
   const cells: string[] = [];
   let cell = '';

@@ -22,7 +22,7 @@ import { solveContact } from '../src/contact.js';
 import { resolveContact } from '../src/inputs/contactInput.js';
 import { samplingRanges } from '../src/derived/uncertainty.js';
 import { InputError } from '../src/errors.js';
-import { CODATA2018 } from './helpers.js';
+import { CODATA2018, bisectIncreasing } from './helpers.js';
 import { bandDiagramSpec } from '../src/output/figures.js';
 import { formatContactSummary } from '../src/output/summary.js';
 
@@ -82,14 +82,7 @@ describe('the alignment with a donor sheet', () => {
   /** independent bisection of Phi - (phi_m - chi - Q_sd(Phi) delta/(eps_i eps0)) = 0 */
   const bisect = (workFunction_eV: number, donors: SurfaceDonors): number => {
     const f = (phi: number) => phi - (workFunction_eV - 4.2 - (Q * donors.density_per_m2 * perCharge) / (1 + 2 * Math.exp((donors.depthBelowConduction_eV - phi) / kT)));
-    let lo = -10;
-    let hi = 10;
-    for (let i = 0; i < 200; i++) {
-      const mid = 0.5 * (lo + hi);
-      if (f(mid) > 0) hi = mid;
-      else lo = mid;
-    }
-    return 0.5 * (lo + hi);
+    return bisectIncreasing(f, -10, 10);
   };
 
   it('solves the Cowley–Sze layer relation (independent bisection, 1e-9 eV)', () => {
