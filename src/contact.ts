@@ -258,7 +258,8 @@ function derivePhysics(c: SolvedContact, planarCharge: ChargeOfBending): Contact
  * contact is not depleted over the range or the alignment fails at a bias.
  */
 function capacitanceBarrierOf(c: SolvedContact, planarCharge: ChargeOfBending): CapacitanceBarrier | null {
-  if (c.r.geometry !== 'planar' || !c.nType || c.bandBending_eV <= 0) return null;
+  // a Schottky barrier of a few kT at least (a degenerate support whose E_F stays above E_C at the interface has none)
+  if (c.r.geometry !== 'planar' || !c.nType || c.bandBending_eV <= 0 || c.barrier.electronBarrier_eV <= 3 * c.model.kT_eV) return null;
   const xi = c.bulk.fermiLevelBelowConduction_eV;
   const states = c.interfaceStates;
   const s = c.r.support;
@@ -282,7 +283,7 @@ function capacitanceBarrierOf(c: SolvedContact, planarCharge: ChargeOfBending): 
             tolerance_eV: 1e-10,
           }).metalCharge_C_per_m2;
   try {
-    return capacitanceBarrier(charge, xi, c.model.kT_eV);
+    return capacitanceBarrier(charge, xi, c.model.kT_eV, s.bandGap_eV);
   } catch (error) {
     if (isModelFailure(error)) return null;
     throw error;

@@ -56,6 +56,11 @@ describe('Mott–Schottky barrier of a given Q(V)', () => {
     const fitCurved = capacitanceBarrier(curved, 0.1, kT);
     expect(fitCurved).toBeNull();
     expect(CV_MIN_R_SQUARED).toBe(0.99);
+    // a nearly flat straight line (the capacitance barely changes with bias) extrapolates to a built-in potential of
+    // 30 V: read without a gap, not reported within a 3.4 eV gap
+    const farIntercept = (b: number) => 0.01 * Math.sqrt(30 + b);
+    expect(capacitanceBarrier(farIntercept, 0.1, kT)!.barrier_eV).toBeGreaterThan(29);
+    expect(capacitanceBarrier(farIntercept, 0.1, kT, 3.4)).toBeNull();
   });
 });
 
@@ -119,5 +124,9 @@ describe('the capacitance barrier of a contact', () => {
     const accumulation = solveContact({ workFunction: 3.8, support: 'ZnO', barrierModel: 'ideal' });
     expect(accumulation.bandBending_eV).toBeLessThan(0);
     expect(accumulation.capacitanceBarrier).toBeNull();
+    // a degenerate support (E_F above E_C at the interface: negative barrier) has no Schottky barrier to read
+    const degenerate = solveContact({ metal: 'Au', support: 'SnO2', donors: 1e20 });
+    expect(degenerate.electronBarrier_eV).toBeLessThan(0);
+    expect(degenerate.capacitanceBarrier).toBeNull();
   });
 });

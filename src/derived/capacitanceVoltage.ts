@@ -41,12 +41,14 @@ export interface CapacitanceBarrier {
  * metal's Fermi level fixed; `fermiLevelBelowConduction_eV` the bulk E_C - E_F, `kT_eV` the thermal energy.
  * C is taken as the difference quotient over each 0.1 V step (second-order at the step's middle). Returns null
  * when the contact is not in depletion over the range (C not positive, or 1/C^2 not rising with reverse bias) or the
- * plot is curved (R^2 below CV_MIN_R_SQUARED): a Mott–Schottky analysis does not apply there.
+ * plot is curved (R^2 below CV_MIN_R_SQUARED), or when the barrier read lies outside (0, bandGap_eV] (a nearly flat
+ * line extrapolated far away): a Mott–Schottky analysis does not apply there.
  */
 export function capacitanceBarrier(
   depletionCharge: (reverseBias_V: number) => number,
   fermiLevelBelowConduction_eV: number,
   kT_eV: number,
+  bandGap_eV: number = Infinity,
 ): CapacitanceBarrier | null {
   requireInRange('kT_eV', kT_eV, 1e-5, 1, 'eV');
   const steps = Math.round(CV_MAX_REVERSE_BIAS_V / CV_BIAS_STEP_V);
@@ -65,7 +67,9 @@ export function capacitanceBarrier(
   // 1/C^2 = 0 at V_R = -a/b = kT - V_bi
   const interceptBuiltIn_V = fit.intercept / fit.slope;
   const barrier_eV = interceptBuiltIn_V + kT_eV + fermiLevelBelowConduction_eV;
-  if (!Number.isFinite(barrier_eV)) return null;
+  // a nearly flat 1/C^2 line (the charge set by an interfacial layer, not a depletion layer) extrapolates to a
+  // built-in potential no contact has: outside (0, E_g] the analysis is not reported
+  if (!Number.isFinite(barrier_eV) || barrier_eV <= 0 || barrier_eV > bandGap_eV) return null;
   return {
     barrier_eV,
     interceptBuiltIn_V,
