@@ -13,6 +13,7 @@ import {
   keepingEvaluations,
   solveInterfaceAlignment,
   type InterfaceAlignment,
+  type InterfaceAlignmentInput,
   type InterfaceStateParameters,
 } from './interface/interfaceStates.js';
 import { PLANAR, disc, discArray, hemisphere, particleArray, type CrossSection } from './electrostatics/geometry.js';
@@ -114,6 +115,36 @@ export function interfaceParametersOf(r: ResolvedContact): InterfaceStateParamet
 }
 
 /**
+ * The input of the interface alignment (Cowley–Sze) for this contact without a particle term: its interface-state
+ * parameters, the (size-corrected) metal work function, the support's affinity and gap, the bulk E_C - E_F against
+ * the metal's Fermi level (lowered by a reverse bias), the space charge Q(V) to align with and its cheap stand-in.
+ */
+function alignmentInputOf(
+  r: ResolvedContact,
+  params: InterfaceStateParameters,
+  fermiLevelBelowConduction_eV: number,
+  spaceCharge: (bandBending_eV: number) => number,
+  spaceChargeEstimate: ChargeOfBending,
+  tolerance_eV: number,
+): InterfaceAlignmentInput {
+  return {
+    stateDensity_per_eV_m2: params.stateDensity_per_eV_m2,
+    neutralLevelAboveValence_eV: params.neutralLevelAboveValence_eV,
+    layerThickness_m: params.layerThickness_m,
+    layerPermittivity: params.layerPermittivity,
+    surfaceDonors: params.surfaceDonors,
+    metalWorkFunction_eV: particleWorkFunction_eV(r),
+    electronAffinity_eV: r.support.electronAffinity_eV,
+    bandGap_eV: r.support.bandGap_eV,
+    fermiLevelBelowConduction_eV,
+    temperature_K: r.temperature_K,
+    spaceCharge,
+    spaceChargeEstimate,
+    tolerance_eV,
+  };
+}
+
+/**
  * The support's dielectric: linear with the static permittivity, or field-dependent (Landau–Devonshire) when the
  * support has a nonlinearity beta, on the optical permittivity as background (src/electrostatics/permittivity.ts).
  */
@@ -157,18 +188,13 @@ export function solveResolved(resolved: ResolvedContact): ContactResult {
   if (r.barrierModel === 'interface-states') {
     const params = interfaceParametersOf(r);
     // Bardeen / Cowley–Sze: the barrier, the interface-state charge and the space charge solved together
-    interfaceStates = { ...params, ...solveInterfaceAlignment({
+    interfaceStates = {
       ...params,
-      metalWorkFunction_eV: metalWorkFunction_eV,
-      particle: finiteParticleTerm(r, geometry),
-      electronAffinity_eV: s.electronAffinity_eV,
-      bandGap_eV: s.bandGap_eV,
-      fermiLevelBelowConduction_eV: bulk.fermiLevelBelowConduction_eV,
-      temperature_K: r.temperature_K,
-      spaceCharge: solved.spaceCharge,
-      spaceChargeEstimate: planarCharge,
-      tolerance_eV: 1e-9,
-    }) };
+      ...solveInterfaceAlignment({
+        ...alignmentInputOf(r, params, bulk.fermiLevelBelowConduction_eV, solved.spaceCharge, planarCharge, 1e-9),
+        particle: finiteParticleTerm(r, geometry),
+      }),
+    };
     bandBending_eV = interfaceStates.bandBending_eV;
     solution = solved.at(bandBending_eV) ?? solveAt(bandBending_eV);
     const electronBarrier_eV = interfaceStates.electronBarrier_eV;
@@ -261,29 +287,13 @@ function capacitanceBarrierOf(c: SolvedContact, planarCharge: ChargeOfBending): 
   // a Schottky barrier of a few kT at least (a degenerate support whose E_F stays above E_C at the interface has none)
   if (c.r.geometry !== 'planar' || !c.nType || c.bandBending_eV <= 0 || c.barrier.electronBarrier_eV <= 3 * c.model.kT_eV) return null;
   const xi = c.bulk.fermiLevelBelowConduction_eV;
-  const states = c.interfaceStates;
-  const s = c.r.support;
+  const params = c.interfaceStates; // the solved alignment carries its parameters
   const charge =
-    states === null
+    params === null
       ? (bias: number) => planarCharge(c.bandBending_eV + bias)
-      : (bias: number) =>
-          -solveInterfaceAlignment({
-            stateDensity_per_eV_m2: states.stateDensity_per_eV_m2,
-            neutralLevelAboveValence_eV: states.neutralLevelAboveValence_eV,
-            layerThickness_m: states.layerThickness_m,
-            layerPermittivity: states.layerPermittivity,
-            surfaceDonors: states.surfaceDonors,
-            metalWorkFunction_eV: particleWorkFunction_eV(c.r),
-            electronAffinity_eV: s.electronAffinity_eV,
-            bandGap_eV: s.bandGap_eV,
-            fermiLevelBelowConduction_eV: xi - bias,
-            temperature_K: c.r.temperature_K,
-            spaceCharge: planarCharge,
-            spaceChargeEstimate: planarCharge,
-            tolerance_eV: 1e-10,
-          }).metalCharge_C_per_m2;
+      : (bias: number) => -solveInterfaceAlignment(alignmentInputOf(c.r, params, xi - bias, planarCharge, planarCharge, 1e-10)).metalCharge_C_per_m2;
   try {
-    return capacitanceBarrier(charge, xi, c.model.kT_eV, s.bandGap_eV);
+    return capacitanceBarrier(charge, xi, c.model.kT_eV, c.r.support.bandGap_eV);
   } catch (error) {
     if (isModelFailure(error)) return null;
     throw error;

@@ -27,7 +27,8 @@ export function percentile(sorted: number[], p: number): number {
   return sorted[low]! + (position - low) * (sorted[high]! - sorted[low]!);
 }
 
-function percentiles(values: number[]): Percentiles {
+/** 5th, 50th and 95th percentiles of the values (type 7); the input is not modified. */
+export function percentiles(values: readonly number[]): Percentiles {
   const sorted = [...values].sort((a, b) => a - b);
   return { p05: percentile(sorted, 0.05), p50: percentile(sorted, 0.5), p95: percentile(sorted, 0.95) };
 }
@@ -85,6 +86,35 @@ export function sampleInputs(base: ResolvedContact, random: () => number, ranges
 }
 
 /**
+ * Draw `samples` sampled copies of `base` (seeded by `seed`, each ranged input by its table row's rule) and evaluate
+ * each with `evaluate(sampled, index)`. A sample whose evaluation throws an error `isFailure` accepts (by default a
+ * model failure: an input combination outside the model) is counted in `failed`, never replaced; anything else is a
+ * bug and surfaces. Serves --uncertainty (propagateUncertainty) and the gallery's scatter bands.
+ */
+export function evaluateSamples<T>(
+  base: ResolvedContact,
+  samples: number,
+  seed: number,
+  evaluate: (sampled: ResolvedContact, index: number) => T,
+  isFailure: (error: unknown) => boolean = isModelFailure,
+  ranges: Map<SampledField, [number, number]> = samplingRanges(base),
+): { values: T[]; failed: number } {
+  const random = seededRandom(seed);
+  const values: T[] = [];
+  let failed = 0;
+  for (let i = 0; i < samples; i++) {
+    const sampled = sampleInputs(base, random, ranges);
+    try {
+      values.push(evaluate(sampled, i));
+    } catch (error) {
+      if (!isFailure(error)) throw error;
+      failed++;
+    }
+  }
+  return { values, failed };
+}
+
+/**
  * Sample `samples` contacts and summarise. A sample that fails (e.g. an input combination outside the model)
  * is counted in `failed` and left out of the statistics, never silently replaced.
  */
@@ -96,31 +126,23 @@ export function propagateUncertainty(
 ): UncertaintySummary {
   requireInRange('--uncertainty', samples, 1, 100000, 'samples');
   requireInRange('--seed', seed, 0, 2 ** 32 - 1, '');
-  const random = seededRandom(seed);
   const ranges = samplingRanges(base);
-  const counts: Record<FlowDirection, number> = { 'support-to-metal': 0, 'metal-to-support': 0, none: 0 };
-  const barrier: number[] = [];
-  const bending: number[] = [];
-  const electrons: number[] = [];
-  let failed = 0;
-  for (let i = 0; i < samples; i++) {
-    const sampled = sampleInputs(base, random, ranges);
-    let result: ContactResult;
-    try {
-      result = solve(sampled);
-    } catch (error) {
-      // a sampled combination outside the model is a failed sample; anything else is a bug and surfaces
-      if (!isModelFailure(error)) throw error;
-      failed++;
-      continue;
-    }
-    counts[result.direction]++;
-    barrier.push(result.barrierHeight_eV);
-    bending.push(result.bandBending_eV);
-    electrons.push(result.electronsPerParticle);
-  }
-  const ok = samples - failed;
+  // only the summarised numbers of each sample are kept (a whole result carries its profile)
+  const { values, failed } = evaluateSamples(
+    base,
+    samples,
+    seed,
+    (sampled) => {
+      const r = solve(sampled);
+      return { direction: r.direction, barrier: r.barrierHeight_eV, bending: r.bandBending_eV, electrons: r.electronsPerParticle };
+    },
+    isModelFailure,
+    ranges,
+  );
+  const ok = values.length;
   if (ok === 0) throw new ConvergenceError('every uncertainty sample failed', samples);
+  const counts: Record<FlowDirection, number> = { 'support-to-metal': 0, 'metal-to-support': 0, none: 0 };
+  for (const v of values) counts[v.direction]++;
   const probability = (k: FlowDirection): number => counts[k] / ok;
   return {
     samples,
@@ -132,8 +154,8 @@ export function propagateUncertainty(
       'metal-to-support': probability('metal-to-support'),
       none: probability('none'),
     },
-    barrierHeight_eV: percentiles(barrier),
-    bandBending_eV: percentiles(bending),
-    electronsPerParticle: percentiles(electrons),
+    barrierHeight_eV: percentiles(values.map((v) => v.barrier)),
+    bandBending_eV: percentiles(values.map((v) => v.bending)),
+    electronsPerParticle: percentiles(values.map((v) => v.electrons)),
   };
 }

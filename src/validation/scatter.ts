@@ -5,7 +5,7 @@
 // model can reach with published inputs; a measurement outside it is a model or data error, not input scatter.
 import { solveResolved } from '../contact.js';
 import { resolveContact, type ContactOptions } from '../inputs/contactInput.js';
-import { percentile, sampleInputs, samplingRanges, seededRandom } from '../derived/uncertainty.js';
+import { evaluateSamples, percentiles, samplingRanges } from '../derived/uncertainty.js';
 import { ConvergenceError, isModelFailure, requireInRange } from '../errors.js';
 import type { ContactResult } from '../types.js';
 
@@ -76,37 +76,30 @@ export function rowScatter(
   requireInRange('--seed', request.seed, 0, 2 ** 32 - 1, '');
   const base = resolveContact(options as ContactOptions);
   const ranges = samplingRanges(base);
-  const random = seededRandom(rowSeed(request.seed, request.id));
-  const values: number[] = [];
-  const counts = { 'to-metal': 0, 'to-support': 0, none: 0 };
-  let failed = 0;
-  for (let i = 0; i < request.samples; i++) {
-    const sampled = sampleInputs(base, random, ranges);
-    let value: number;
-    try {
-      value = observe(solveResolved(sampled));
-    } catch (error) {
-      // a sampled combination outside the model (or an observable the sample does not have, e.g. a hole barrier of a
-      // sample that turned n-type) is a failed sample; anything else is a bug and surfaces
-      if (!isModelFailure(error) && !(error instanceof ObservableMissing)) throw error;
-      failed++;
-      continue;
-    }
-    // the solver never returns a non-finite value (a bug if it did): surface it, never count it as a failed sample
-    if (!Number.isFinite(value)) throw new Error(`scatter sample ${i} of row ${request.id}: the observable is ${value}`);
-    values.push(value);
-    if (signOf) counts[signOf(value)]++;
-  }
+  const { values, failed } = evaluateSamples(
+    base,
+    request.samples,
+    rowSeed(request.seed, request.id),
+    (sampled, i) => {
+      const value = observe(solveResolved(sampled));
+      // the solver never returns a non-finite value (a bug if it did): surface it, never count it as a failed sample
+      if (!Number.isFinite(value)) throw new Error(`scatter sample ${i} of row ${request.id}: the observable is ${value}`);
+      return value;
+    },
+    // a sampled combination outside the model, or an observable the sample does not have (a hole barrier of a sample
+    // that turned n-type), is a failed sample
+    (error) => isModelFailure(error) || error instanceof ObservableMissing,
+    ranges,
+  );
   if (values.length === 0) throw new ConvergenceError(`every scatter sample of row ${request.id} failed`, request.samples);
-  values.sort((a, b) => a - b);
+  const counts = { 'to-metal': 0, 'to-support': 0, none: 0 };
+  if (signOf) for (const v of values) counts[signOf(v)]++;
   const n = values.length;
   return {
     samples: request.samples,
     failed,
     sampledInputs: [...ranges.keys()],
-    p05: percentile(values, 0.05),
-    p50: percentile(values, 0.5),
-    p95: percentile(values, 0.95),
+    ...percentiles(values),
     ...(signOf ? { signProbability: { 'to-metal': counts['to-metal'] / n, 'to-support': counts['to-support'] / n, none: counts.none / n } } : {}),
   };
 }
